@@ -1,0 +1,1 @@
+//! Lensplane's user interface.

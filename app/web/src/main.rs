@@ -1,1 +1,4 @@
-fn main() {}
+//! The wasm entry point: everything lives in the library so tests can import it.
+fn main() {
+    lensplane_web::start();
+}

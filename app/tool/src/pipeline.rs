@@ -1,0 +1,185 @@
+//! The build: wasm target → cargo → wasm-bindgen → (wasm-opt) → hashed static folder.
+
+use crate::{assets, sizes, Options};
+use std::path::{Path, PathBuf};
+use std::process::Command;
+
+const TARGET: &str = "wasm32-unknown-unknown";
+/// Debian's wasm-opt 108 emits wasm that fails at start-up with current
+/// wasm-bindgen output; npm's binaryen 132 is known good. Anything older than
+/// this is skipped rather than trusted.
+const MIN_WASM_OPT: u32 = 118;
+
+pub fn build(root: &Path, opts: &Options) -> Result<(), String> {
+    ensure_target()?;
+    let wasm = cargo_build(root)?;
+    let staging = opts.out.with_extension("staging");
+    let _ = std::fs::remove_dir_all(&staging);
+    let bindgen_dir = staging.join("bindgen");
+    let site = staging.join("site");
+    std::fs::create_dir_all(&bindgen_dir).map_err(|e| format!("cannot create {}: {e}", bindgen_dir.display()))?;
+
+    println!("lensplane: generating bindings (wasm-bindgen {})", wasm_bindgen_version());
+    let mut bindgen = wasm_bindgen_cli_support::Bindgen::new();
+    bindgen
+        .input_path(&wasm)
+        .out_name("lensplane")
+        .web(true)
+        .map_err(|e| e.to_string())?
+        // Without the default module path the page cannot find its wasm.
+        .omit_default_module_path(false)
+        .debug(false)
+        .keep_debug(false)
+        .typescript(false);
+    bindgen.generate(&bindgen_dir).map_err(|e| format!("wasm-bindgen failed: {e}"))?;
+
+    let wasm_out = bindgen_dir.join("lensplane_bg.wasm");
+    if opts.optimise {
+        match find_wasm_opt(root) {
+            Some(tool) => optimise(&tool, &wasm_out)?,
+            None => println!("lensplane: no working wasm-opt (npm binaryen ≥ {MIN_WASM_OPT}); shipping the unoptimised wasm"),
+        }
+    }
+
+    let build_id = opts.build_id.clone().unwrap_or_else(|| default_build_id(root));
+    let files = assets::assemble(root, &bindgen_dir, &site, &build_id)?;
+
+    // Swap the finished folder in whole, so a running server never serves half a build.
+    let old = opts.out.with_extension("old");
+    let _ = std::fs::remove_dir_all(&old);
+    if opts.out.exists() {
+        std::fs::rename(&opts.out, &old).map_err(|e| format!("cannot move the old build aside: {e}"))?;
+    }
+    std::fs::rename(&site, &opts.out).map_err(|e| format!("cannot place the build at {}: {e}", opts.out.display()))?;
+    let _ = std::fs::remove_dir_all(&old);
+    let _ = std::fs::remove_dir_all(&staging);
+
+    let report = sizes::report(&files, &build_id);
+    let report_path = opts.out.with_extension("report.json");
+    std::fs::write(&report_path, report).map_err(|e| format!("cannot write {}: {e}", report_path.display()))?;
+    println!("lensplane: built {} (build {build_id}); size report in {}", opts.out.display(), report_path.display());
+    Ok(())
+}
+
+fn wasm_bindgen_version() -> &'static str {
+    // Kept equal to the `=` pin in Cargo.toml; the lockfile enforces the rest.
+    "0.2.130"
+}
+
+fn run(cmd: &mut Command, what: &str) -> Result<(), String> {
+    let status = cmd.status().map_err(|e| format!("cannot start {what}: {e}"))?;
+    if status.success() {
+        Ok(())
+    } else {
+        Err(format!("{what} failed ({status})"))
+    }
+}
+
+fn ensure_target() -> Result<(), String> {
+    let installed = Command::new("rustup").args(["target", "list", "--installed"]).output();
+    match installed {
+        Ok(out) if String::from_utf8_lossy(&out.stdout).lines().any(|l| l.trim() == TARGET) => Ok(()),
+        Ok(_) => {
+            println!("lensplane: adding the {TARGET} target with rustup");
+            run(Command::new("rustup").args(["target", "add", TARGET]), "rustup target add")
+        }
+        // No rustup: let cargo say whether the target's standard library is there.
+        Err(_) => Ok(()),
+    }
+}
+
+fn target_dir(root: &Path) -> PathBuf {
+    std::env::var_os("CARGO_TARGET_DIR")
+        .map(PathBuf::from)
+        .map(|p| if p.is_relative() { root.join(p) } else { p })
+        .unwrap_or_else(|| root.join("target"))
+}
+
+fn cargo_build(root: &Path) -> Result<PathBuf, String> {
+    let cargo = std::env::var("CARGO").unwrap_or_else(|_| "cargo".into());
+    println!("lensplane: compiling the app for {TARGET} (release, size-tuned)");
+    run(
+        Command::new(cargo)
+            .current_dir(root)
+            .args(["build", "--release", "--locked", "--target", TARGET, "-p", "lensplane-web", "--bin", "lensplane-web"]),
+        "cargo build of the app",
+    )?;
+    let wasm = target_dir(root).join(TARGET).join("release").join("lensplane-web.wasm");
+    if wasm.exists() {
+        Ok(wasm)
+    } else {
+        Err(format!("cargo finished but {} is missing", wasm.display()))
+    }
+}
+
+fn wasm_opt_version(tool: &Path) -> Option<u32> {
+    let out = Command::new(tool).arg("--version").output().ok()?;
+    let text = String::from_utf8_lossy(&out.stdout);
+    // "wasm-opt version 132 (version_132)"
+    text.split_whitespace().nth(2)?.parse().ok()
+}
+
+fn find_wasm_opt(root: &Path) -> Option<PathBuf> {
+    let local = root.join("tests/node_modules/.bin/wasm-opt");
+    if !local.exists() && root.join("tests/package-lock.json").exists() {
+        println!("lensplane: installing npm packages in tests/ from the lockfile (for wasm-opt)");
+        let ok = Command::new("npm")
+            .current_dir(root.join("tests"))
+            .args(["ci", "--no-audit", "--no-fund"])
+            .status()
+            .map(|s| s.success())
+            .unwrap_or(false);
+        if !ok {
+            println!("lensplane: npm ci did not succeed; continuing without wasm-opt");
+        }
+    }
+    for candidate in [local, PathBuf::from("wasm-opt")] {
+        match wasm_opt_version(&candidate) {
+            Some(v) if v >= MIN_WASM_OPT => return Some(candidate),
+            Some(v) => println!("lensplane: skipping {} (version {v} < {MIN_WASM_OPT})", candidate.display()),
+            None => {}
+        }
+    }
+    None
+}
+
+fn optimise(tool: &Path, wasm: &Path) -> Result<(), String> {
+    println!("lensplane: wasm-opt -Oz with {}", tool.display());
+    let tmp = wasm.with_extension("opt.wasm");
+    run(
+        Command::new(tool).arg(wasm).arg("-o").arg(&tmp).args([
+            "-Oz",
+            // The features rustc enables by default for wasm32-unknown-unknown.
+            "--enable-bulk-memory",
+            "--enable-mutable-globals",
+            "--enable-nontrapping-float-to-int",
+            "--enable-sign-ext",
+            "--enable-reference-types",
+            "--enable-multivalue",
+        ]),
+        "wasm-opt",
+    )?;
+    std::fs::rename(&tmp, wasm).map_err(|e| e.to_string())
+}
+
+fn default_build_id(root: &Path) -> String {
+    if let Ok(id) = std::env::var("LENSPLANE_BUILD_ID") {
+        return id;
+    }
+    let git = |args: &[&str]| {
+        Command::new("git")
+            .current_dir(root)
+            .args(args)
+            .output()
+            .ok()
+            .filter(|o| o.status.success())
+            .map(|o| String::from_utf8_lossy(&o.stdout).trim().to_string())
+    };
+    match git(&["rev-parse", "--short=10", "HEAD"]) {
+        Some(rev) if !rev.is_empty() => {
+            let dirty = git(&["status", "--porcelain", "--untracked-files=no"]).is_some_and(|s| !s.is_empty());
+            if dirty { format!("{rev}+local") } else { rev }
+        }
+        _ => "local".into(),
+    }
+}

@@ -1,0 +1,139 @@
+//! A small local static server: the built folder, route fallback to
+//! index.html, no-cache for the worker and the page, long cache for hashed files.
+
+use std::path::{Component, Path, PathBuf};
+use tiny_http::{Header, Response, Server};
+
+/// The same policy the page carries in its meta tag, plus what only a header can say.
+pub const CSP: &str = "default-src 'self'; script-src 'self' 'wasm-unsafe-eval'; style-src 'self'; \
+img-src 'self' data: blob:; font-src 'self'; connect-src 'self'; manifest-src 'self'; worker-src 'self'; \
+object-src 'none'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'";
+
+fn content_type(path: &Path) -> &'static str {
+    match path.extension().and_then(|e| e.to_str()).unwrap_or("") {
+        "html" => "text/html; charset=utf-8",
+        "js" => "text/javascript; charset=utf-8",
+        "wasm" => "application/wasm",
+        "css" => "text/css; charset=utf-8",
+        "json" if path.file_name().is_some_and(|n| n == "manifest.json") => "application/manifest+json",
+        "json" => "application/json",
+        "png" => "image/png",
+        "svg" => "image/svg+xml",
+        "ico" => "image/x-icon",
+        "txt" => "text/plain; charset=utf-8",
+        _ => "application/octet-stream",
+    }
+}
+
+/// Whether a file name carries a content hash (`name-0123456789.ext`).
+fn is_hashed(path: &Path) -> bool {
+    let stem = path.file_stem().and_then(|s| s.to_str()).unwrap_or("");
+    stem.rsplit_once('-')
+        .is_some_and(|(_, h)| h.len() == 10 && h.bytes().all(|b| b.is_ascii_hexdigit()))
+}
+
+fn percent_decode(s: &str) -> String {
+    let bytes = s.as_bytes();
+    let mut out = Vec::with_capacity(bytes.len());
+    let mut i = 0;
+    while i < bytes.len() {
+        if bytes[i] == b'%' && i + 2 < bytes.len() {
+            if let Some(v) = std::str::from_utf8(&bytes[i + 1..i + 3]).ok().and_then(|h| u8::from_str_radix(h, 16).ok()) {
+                out.push(v);
+                i += 3;
+                continue;
+            }
+        }
+        out.push(bytes[i]);
+        i += 1;
+    }
+    String::from_utf8_lossy(&out).into_owned()
+}
+
+/// Maps a request path to a file in `dir`, refusing anything that climbs out.
+fn resolve(dir: &Path, prefix: &str, url: &str) -> Option<PathBuf> {
+    let path = url.split(['?', '#']).next().unwrap_or("");
+    let rest = path.strip_prefix(prefix).or_else(|| (path.to_string() + "/" == prefix).then_some(""))?;
+    let rest = percent_decode(rest);
+    let rel = Path::new(&rest);
+    if rel.components().any(|c| !matches!(c, Component::Normal(_))) {
+        return None;
+    }
+    let file = dir.join(rel);
+    if file.is_file() {
+        return Some(file);
+    }
+    // A route of the app (no file extension): the page handles it.
+    if rel.extension().is_none() {
+        return Some(dir.join("index.html"));
+    }
+    None
+}
+
+pub fn serve(dir: &Path, port: u16, prefix: &str) -> Result<(), String> {
+    if !dir.join("index.html").is_file() {
+        return Err(format!("{} has no index.html; run `lensplane build` first", dir.display()));
+    }
+    let server = Server::http(("127.0.0.1", port)).map_err(|e| format!("cannot listen on 127.0.0.1:{port}: {e}"))?;
+    let actual = server.server_addr().to_ip().map(|a| a.port()).unwrap_or(port);
+    println!("Lensplane is served at http://127.0.0.1:{actual}{prefix}  (Ctrl-C stops it)");
+    for request in server.incoming_requests() {
+        let url = request.url().to_string();
+        let response = match resolve(dir, prefix, &url) {
+            Some(file) => match std::fs::read(&file) {
+                Ok(bytes) => {
+                    let cache = if is_hashed(&file) { "public, max-age=31536000, immutable" } else { "no-cache" };
+                    Response::from_data(bytes)
+                        .with_header(header("Content-Type", content_type(&file)))
+                        .with_header(header("Cache-Control", cache))
+                }
+                Err(_) => Response::from_string("not found").with_status_code(404),
+            },
+            None => Response::from_string("not found").with_status_code(404),
+        };
+        let response = response
+            .with_header(header("Content-Security-Policy", CSP))
+            .with_header(header("X-Content-Type-Options", "nosniff"))
+            .with_header(header("Referrer-Policy", "no-referrer"));
+        let _ = request.respond(response);
+    }
+    Ok(())
+}
+
+fn header(name: &str, value: &str) -> Header {
+    Header::from_bytes(name.as_bytes(), value.as_bytes()).expect("static header is valid")
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn hashed_names_are_recognised() {
+        assert!(is_hashed(Path::new("lensplane-0a1b2c3d4e.wasm")));
+        assert!(!is_hashed(Path::new("sw.js")));
+        assert!(!is_hashed(Path::new("icon-192.png")));
+    }
+
+    #[test]
+    fn paths_cannot_climb_out() {
+        let dir = std::env::temp_dir();
+        assert!(resolve(&dir, "/", "/../etc/passwd").is_none());
+        assert!(resolve(&dir, "/", "/%2e%2e/etc/passwd").is_none());
+        assert!(resolve(&dir, "/sub/", "/other/vertex").is_none());
+    }
+
+    #[test]
+    fn routes_fall_back_to_the_page() {
+        let dir = std::env::temp_dir();
+        assert_eq!(resolve(&dir, "/", "/near?r=-2.00").unwrap(), dir.join("index.html"));
+        assert_eq!(resolve(&dir, "/sub/", "/sub").unwrap(), dir.join("index.html"));
+        assert!(resolve(&dir, "/", "/missing.js").is_none());
+    }
+
+    #[test]
+    fn percent_escapes_decode() {
+        assert_eq!(percent_decode("a%20b%2F"), "a b/");
+        assert_eq!(percent_decode("100%"), "100%");
+    }
+}

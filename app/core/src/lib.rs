@@ -1,2 +1,40 @@
-//! Lensplane's computation core (skeleton; see issue 3).
+//! # Lensplane core
+//!
+//! The computation core of Lensplane: moving spectacle and contact-lens
+//! prescriptions between optical planes (vertex compensation), spherical
+//! equivalents and spherical substitutes, rounding to orderable powers, toric
+//! contact-lens mapping, and near (add) effectivity. Pure functions, no I/O,
+//! no web dependencies.
+//!
+//! Results are starting points, never a prescription: confirm by
+//! over-refraction and acuity, and defer to local regulations and licensed
+//! practice.
+//!
+//! (The full model description is being written; see the module list.)
 #![forbid(unsafe_code)]
+#![warn(missing_docs)]
+
+mod error;
+mod format;
+mod lex;
+mod limits;
+mod meridians;
+mod parse;
+mod rounding;
+mod rx;
+mod units;
+mod vectors;
+mod vertex;
+
+pub use error::{Error, Field};
+pub use format::{fmt_dioptres, fmt_number, fmt_power, fmt_sphere};
+pub use meridians::{Meridian, PowerCross};
+pub use parse::{
+    parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance,
+    parse_rx, parse_sphere_field, parse_vertex_mm, LengthUnit, Notice, NoticeKind, Parsed,
+};
+pub use rounding::{is_on_step, round_to_step, TieRule};
+pub use rx::Rx;
+pub use units::{Add, Age, Eye, EyePair, Measured, ReadingDistance, VertexDistance};
+pub use vectors::PowerVector;
+pub use vertex::{compensate, compensate_meridians, compensate_power, effective_power};

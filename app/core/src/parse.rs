@@ -1,0 +1,764 @@
+//! Reading what practitioners type: whole prescriptions, single fields,
+//! vertex and reading distances, adds and ages.
+//!
+//! Tolerant of notation (dashes for minus, comma decimals, `x`/`×`/`@`/`ax`,
+//! `/` separators, `DS`/`sph`, three-digit axes), strict about meaning: a
+//! missing sign, a missing axis, an axis outside 1–180 or a number that looks
+//! like it lost its decimal point is an error that asks, never a guess.
+
+use serde::{Deserialize, Serialize};
+
+use crate::error::{Error, ErrorKind, Field};
+use crate::format::{fmt_number, fmt_power};
+use crate::lex::{lex, Num, Sign, Tok, Token};
+use crate::limits::{
+    ADD_MAX, CM_PER_INCH, CYLINDER_LIMIT, CYLINDER_WARN, READING_CM, SPHERE_LIMIT, SPHERE_WARN,
+    VERTEX_MAX_MM, VERTEX_SHORT_MM,
+};
+use crate::rounding::{is_on_step, round_to_step, TieRule};
+use crate::{Add, Age, ReadingDistance, Rx, VertexDistance};
+
+/// A parsed value and what the parser wants the user to know about how it
+/// read the text (nothing here is an error).
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct Parsed<T> {
+    /// The value read.
+    pub value: T,
+    /// Things worth telling the user (axis 0 stored as 180, a dash read as
+    /// a minus, an off-step power…).
+    pub notices: Vec<Notice>,
+}
+
+/// Something the parser did that the user should see.
+#[derive(Clone, Debug, PartialEq, Eq, Serialize, Deserialize)]
+pub struct Notice {
+    /// What kind of notice.
+    pub kind: NoticeKind,
+    /// The input it concerns.
+    pub field: Field,
+    /// Plain words, with the value echoed.
+    pub message: String,
+}
+
+/// The kinds of [`Notice`].
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+pub enum NoticeKind {
+    /// A dash or other non-ASCII minus was read as a minus sign.
+    MinusRead,
+    /// A comma was read as a decimal point.
+    CommaDecimal,
+    /// Axis 0 (or 000) stored as 180.
+    AxisZero,
+    /// A power between quarter-dioptre steps (autorefractor output).
+    OffStep,
+    /// An axis given without `x`, `@` or `ax`.
+    BareAxis,
+    /// An axis given for a zero cylinder, ignored.
+    AxisIgnored,
+    /// A value typed in another unit and converted.
+    UnitConverted,
+    /// A bare number read in the unit it can only be.
+    UnitAssumed,
+}
+
+fn notice(kind: NoticeKind, field: Field, message: String) -> Notice {
+    Notice { kind, field, message }
+}
+
+fn unexpected(t: &Token, field: Field) -> Error {
+    Error::new(ErrorKind::Unexpected { text: t.raw.clone() }, field, Some(t.start))
+}
+
+fn word<'a>(t: Option<&'a Token>) -> Option<&'a str> {
+    match t.map(|t| &t.tok) {
+        Some(Tok::Word(w)) => Some(w.as_str()),
+        _ => None,
+    }
+}
+
+fn is_plano(w: &str) -> bool {
+    matches!(w, "pl" | "plano" | "pln")
+}
+fn is_spherical_mark(w: &str) -> bool {
+    matches!(w, "ds" | "sph" | "sphere" | "dsph")
+}
+fn is_cyl_label(w: &str) -> bool {
+    matches!(w, "cyl" | "cylinder" | "dc" | "dcyl")
+}
+fn is_axis_mark(t: Option<&Token>) -> bool {
+    match t.map(|t| &t.tok) {
+        Some(Tok::At) => true,
+        Some(Tok::Word(w)) => matches!(w.as_str(), "x" | "ax" | "axis"),
+        _ => false,
+    }
+}
+
+#[derive(Clone, Copy)]
+enum Role {
+    Sphere,
+    Cylinder,
+}
+
+impl Role {
+    fn field(self) -> Field {
+        match self {
+            Role::Sphere => Field::Sphere,
+            Role::Cylinder => Field::Cylinder,
+        }
+    }
+    fn limit(self) -> (f64, f64, &'static str) {
+        match self {
+            Role::Sphere => (SPHERE_LIMIT, SPHERE_WARN, "±30 D"),
+            Role::Cylinder => (CYLINDER_LIMIT, CYLINDER_WARN, "±10 D"),
+        }
+    }
+}
+
+/// Readings of an integer with its decimal point restored, that land on a
+/// quarter step within `plausible`: 250 → 2.50; 80 → 8.00; 75 → 0.75, 7.50.
+fn restored(num: &Num, plausible: f64) -> Vec<f64> {
+    if num.frac.is_some() || num.int.len() < 2 {
+        return vec![];
+    }
+    let m = num.magnitude();
+    let mut out: Vec<f64> = [m / 100.0, m / 10.0]
+        .into_iter()
+        .filter(|c| *c > 0.0 && *c <= plausible && is_on_step(*c, 0.25))
+        .collect();
+    out.sort_by(|a, b| a.total_cmp(b));
+    out.dedup();
+    out
+}
+
+fn signed_suggestions(sign: Sign, candidates: &[f64]) -> Vec<String> {
+    let p = |x: f64| crate::format::prose_power(x);
+    candidates
+        .iter()
+        .map(|&c| match sign {
+            Sign::Minus => p(-c),
+            Sign::Plus => p(c),
+            _ => format!("{} or {}", p(c), p(-c)),
+        })
+        .collect()
+}
+
+fn reading_notices(num: &Num, field: Field, value: f64) -> Vec<Notice> {
+    let mut out = vec![];
+    if num.typographic_minus {
+        out.push(notice(
+            NoticeKind::MinusRead,
+            field,
+            format!("read the dash as a minus: {}", fmt_power(value)),
+        ));
+    }
+    if num.comma {
+        out.push(notice(
+            NoticeKind::CommaDecimal,
+            field,
+            format!("read the comma as a decimal point: {}", fmt_power(value)),
+        ));
+    }
+    out
+}
+
+/// A sphere or cylinder number: sign required unless zero, hard limit,
+/// implied-decimal suggestions, off-step notice.
+fn power(t: &Token, num: &Num, role: Role) -> Result<(f64, Vec<Notice>), Error> {
+    let field = role.field();
+    let (limit, plausible, limit_text) = role.limit();
+    let m = num.magnitude();
+    if m > limit {
+        let suggestions = signed_suggestions(num.sign, &restored(num, plausible));
+        return Err(Error::new(
+            ErrorKind::OutOfRange { typed: num.typed(), limit: limit_text, suggestions },
+            field,
+            Some(t.start),
+        ));
+    }
+    if m != 0.0 && matches!(num.sign, Sign::None | Sign::PlusMinus) {
+        return Err(Error::new(ErrorKind::NeedsSign { magnitude: m }, field, Some(t.start)));
+    }
+    let value = num.value() + 0.0;
+    let mut notices = reading_notices(num, field, value);
+    if !is_on_step(value, 0.25) {
+        let nearest = round_to_step(value, 0.25, TieRule::default());
+        notices.push(notice(
+            NoticeKind::OffStep,
+            field,
+            format!(
+                "{} {} is between quarter steps; nearest {}",
+                noun(field),
+                fmt_power(value),
+                fmt_power(nearest)
+            ),
+        ));
+    }
+    Ok((value, notices))
+}
+
+fn noun(field: Field) -> &'static str {
+    match field {
+        Field::Cylinder => "cylinder",
+        Field::Add => "add",
+        _ => "sphere",
+    }
+}
+
+/// An axis number: whole degrees 0–180, 0 stored as 180.
+fn axis(t: &Token, num: &Num) -> Result<(u16, Vec<Notice>), Error> {
+    let out_of_range = |typed: String| {
+        Error::new(
+            ErrorKind::OutOfRange { typed, limit: "1–180", suggestions: vec![] },
+            Field::Axis,
+            Some(t.start),
+        )
+    };
+    if num.frac.is_some() {
+        return Err(Error::new(
+            ErrorKind::AxisNotWhole { typed: num.typed() },
+            Field::Axis,
+            Some(t.start),
+        ));
+    }
+    match num.sign {
+        Sign::Minus => return Err(out_of_range(num.typed())),
+        Sign::PlusMinus => return Err(unexpected(t, Field::Axis)),
+        _ => {}
+    }
+    if num.int.len() > 3 {
+        return Err(out_of_range(num.int.clone()));
+    }
+    let value: u16 = num.int.parse().unwrap_or(u16::MAX);
+    match value {
+        0 => Ok((
+            180,
+            vec![notice(
+                NoticeKind::AxisZero,
+                Field::Axis,
+                format!("axis {} is written 180: stored as 180", num.int),
+            )],
+        )),
+        1..=180 => Ok((value, vec![])),
+        _ => Err(out_of_range(value.to_string())),
+    }
+}
+
+/// Parse a whole prescription for one eye.
+///
+/// Accepts, among others: `-2.00 -1.00 x180`, `−2.00/−1.00×180`,
+/// `-2,50 DS`, `pl -0.50 x 90`, `+1.50 -0.75 @ 5`, `-2.00 -1.00 ax 180`,
+/// `-2.00 -1.00 180°`, `-3.75 sph`, `-6 D`, `±0.00`.
+///
+/// ```
+/// use lensplane_core::parse_rx;
+/// let p = parse_rx("\u{2212}2.00/\u{2212}1.00×180")?;
+/// assert_eq!(p.value.to_string(), "-2.00 -1.00 ×180");
+///
+/// let p = parse_rx("-1.00 -0.50 x000")?;
+/// assert_eq!(p.value.axis(), 180);
+/// assert_eq!(p.notices[0].message, "axis 000 is written 180: stored as 180");
+///
+/// assert_eq!(parse_rx("2.00 -1.00 x90").unwrap_err().to_string(),
+///            "sphere needs a sign: +2.00 or \u{2212}2.00?");
+/// assert_eq!(parse_rx("-2.00 -1.00").unwrap_err().to_string(), "cylinder needs an axis");
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn parse_rx(text: &str) -> Result<Parsed<Rx>, Error> {
+    let toks = lex(text, Field::Rx)?;
+    let toks = toks.as_slice();
+    if toks.is_empty() {
+        return Err(Error::new(ErrorKind::Empty, Field::Rx, None));
+    }
+    let mut i = 0;
+    let mut notices = Vec::new();
+    // An optional label: "sph -2.00 …".
+    if word(toks.first()).is_some_and(|w| matches!(w, "sph" | "sphere"))
+        && matches!(toks.get(1).map(|t| &t.tok), Some(Tok::Num(_)))
+    {
+        i = 1;
+    }
+    // Sphere.
+    let sphere_tok = &toks[i];
+    let sphere = match &sphere_tok.tok {
+        Tok::Num(n) => {
+            let (v, mut n) = power(sphere_tok, n, Role::Sphere)?;
+            notices.append(&mut n);
+            v
+        }
+        Tok::Word(w) if is_plano(w) => 0.0,
+        Tok::At => {
+            return Err(Error::new(ErrorKind::AxisNeedsCylinder, Field::Axis, Some(sphere_tok.start)))
+        }
+        _ => return Err(unexpected(sphere_tok, Field::Sphere)),
+    };
+    i += 1;
+    // "DS", "sph", "D.S." or "D" after the sphere.
+    if let Some(w) = word(toks.get(i)) {
+        if is_spherical_mark(w) {
+            return match toks.get(i + 1) {
+                None => Ok(Parsed { value: Rx::new(sphere, 0.0, 180)?, notices }),
+                Some(t) => Err(unexpected(t, Field::Rx)),
+            };
+        }
+        if w == "d" {
+            i += 1;
+        }
+    }
+    if matches!(toks.get(i).map(|t| &t.tok), Some(Tok::Slash | Tok::Comma)) {
+        i += 1;
+    }
+    if word(toks.get(i)).is_some_and(is_cyl_label)
+        && matches!(toks.get(i + 1).map(|t| &t.tok), Some(Tok::Num(_)))
+    {
+        i += 1;
+    }
+    let Some(cyl_tok) = toks.get(i) else {
+        return Ok(Parsed { value: Rx::new(sphere, 0.0, 180)?, notices });
+    };
+    if is_axis_mark(Some(cyl_tok)) {
+        return Err(Error::new(ErrorKind::AxisNeedsCylinder, Field::Axis, Some(cyl_tok.start)));
+    }
+    let cylinder = match &cyl_tok.tok {
+        Tok::Num(n) => {
+            let (v, mut n) = power(cyl_tok, n, Role::Cylinder)?;
+            notices.append(&mut n);
+            v
+        }
+        _ => return Err(unexpected(cyl_tok, Field::Cylinder)),
+    };
+    i += 1;
+    if word(toks.get(i)).is_some_and(|w| w == "d" || is_cyl_label(w)) {
+        i += 1;
+    }
+    if matches!(toks.get(i).map(|t| &t.tok), Some(Tok::Slash | Tok::Comma)) {
+        i += 1;
+    }
+    let mut axis_value = None;
+    if let Some(t) = toks.get(i) {
+        if is_axis_mark(Some(t)) {
+            i += 1;
+            match toks.get(i) {
+                Some(at @ Token { tok: Tok::Num(n), .. }) => {
+                    let (a, mut n) = axis(at, n)?;
+                    notices.append(&mut n);
+                    axis_value = Some(a);
+                    i += 1;
+                }
+                Some(other) => return Err(unexpected(other, Field::Axis)),
+                None => {
+                    return Err(Error::new(ErrorKind::CylinderNeedsAxis, Field::Axis, Some(t.start)))
+                }
+            }
+        } else if let Tok::Num(n) = &t.tok {
+            if n.sign != Sign::None && n.sign != Sign::Minus {
+                return Err(unexpected(t, Field::Axis));
+            }
+            if n.sign == Sign::Minus && n.frac.is_some() {
+                return Err(unexpected(t, Field::Axis));
+            }
+            let (a, mut more) = axis(t, n)?;
+            let degree = matches!(toks.get(i + 1).map(|t| &t.tok), Some(Tok::Degree));
+            if !degree {
+                notices.push(notice(
+                    NoticeKind::BareAxis,
+                    Field::Axis,
+                    format!("read {} as the axis", n.int),
+                ));
+            }
+            notices.append(&mut more);
+            axis_value = Some(a);
+            i += 1;
+        } else {
+            return Err(unexpected(t, Field::Axis));
+        }
+        if matches!(toks.get(i).map(|t| &t.tok), Some(Tok::Degree)) {
+            i += 1;
+        }
+    }
+    if let Some(t) = toks.get(i) {
+        return Err(unexpected(t, Field::Rx));
+    }
+    finish(sphere, cylinder, axis_value, notices, Some(cyl_tok.start))
+}
+
+fn finish(
+    sphere: f64,
+    cylinder: f64,
+    axis: Option<u16>,
+    mut notices: Vec<Notice>,
+    cyl_position: Option<usize>,
+) -> Result<Parsed<Rx>, Error> {
+    match (cylinder == 0.0, axis) {
+        (true, Some(a)) => {
+            notices.push(notice(
+                NoticeKind::AxisIgnored,
+                Field::Axis,
+                format!("axis {a} ignored: the cylinder is zero"),
+            ));
+            Ok(Parsed { value: Rx::new(sphere, 0.0, 180)?, notices })
+        }
+        (true, None) => Ok(Parsed { value: Rx::new(sphere, 0.0, 180)?, notices }),
+        (false, None) => Err(Error::new(ErrorKind::CylinderNeedsAxis, Field::Axis, cyl_position)),
+        (false, Some(a)) => Ok(Parsed { value: Rx::new(sphere, cylinder, a)?, notices }),
+    }
+}
+
+/// Parse the sphere field of a three-field entry. Accepts a signed power,
+/// `0`, `pl`/`plano`, with an optional `D`/`DS`/`sph`.
+///
+/// ```
+/// use lensplane_core::parse_sphere_field;
+/// assert_eq!(parse_sphere_field("–6")?.value, -6.0);
+/// assert_eq!(parse_sphere_field("plano")?.value, 0.0);
+/// assert_eq!(parse_sphere_field("-250").unwrap_err().to_string(),
+///            "sphere \u{2212}250 is outside ±30 D: did you mean \u{2212}2.50?");
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn parse_sphere_field(text: &str) -> Result<Parsed<f64>, Error> {
+    let toks = lex(text, Field::Sphere)?;
+    let mut i = 0;
+    if word(toks.first()).is_some_and(|w| matches!(w, "sph" | "sphere")) && toks.len() > 1 {
+        i = 1;
+    }
+    let Some(t) = toks.get(i) else {
+        return Err(Error::new(ErrorKind::Empty, Field::Sphere, None));
+    };
+    let (value, notices) = match &t.tok {
+        Tok::Num(n) => power(t, n, Role::Sphere)?,
+        Tok::Word(w) if is_plano(w) => (0.0, vec![]),
+        _ => return Err(unexpected(t, Field::Sphere)),
+    };
+    i += 1;
+    if word(toks.get(i)).is_some_and(|w| w == "d" || is_spherical_mark(w)) {
+        i += 1;
+    }
+    match toks.get(i) {
+        Some(t) => Err(unexpected(t, Field::Sphere)),
+        None => Ok(Parsed { value, notices }),
+    }
+}
+
+/// Parse the cylinder field. Empty means no cylinder (0). Either sign
+/// (minus- or plus-cylinder form); a non-zero cylinder needs its sign.
+///
+/// ```
+/// use lensplane_core::parse_cylinder_field;
+/// assert_eq!(parse_cylinder_field("-1,25")?.value, -1.25);
+/// assert_eq!(parse_cylinder_field("")?.value, 0.0);
+/// assert_eq!(parse_cylinder_field("1.00").unwrap_err().to_string(),
+///            "cylinder needs a sign: +1.00 or \u{2212}1.00?");
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn parse_cylinder_field(text: &str) -> Result<Parsed<f64>, Error> {
+    let toks = lex(text, Field::Cylinder)?;
+    let mut i = 0;
+    if word(toks.first()).is_some_and(is_cyl_label) && toks.len() > 1 {
+        i = 1;
+    }
+    let Some(t) = toks.get(i) else {
+        return Ok(Parsed { value: 0.0, notices: vec![] });
+    };
+    let (value, notices) = match &t.tok {
+        Tok::Num(n) => power(t, n, Role::Cylinder)?,
+        Tok::Word(w) if is_spherical_mark(w) || is_plano(w) => (0.0, vec![]),
+        _ => return Err(unexpected(t, Field::Cylinder)),
+    };
+    i += 1;
+    if word(toks.get(i)).is_some_and(|w| w == "d" || is_cyl_label(w)) {
+        i += 1;
+    }
+    match toks.get(i) {
+        Some(t) => Err(unexpected(t, Field::Cylinder)),
+        None => Ok(Parsed { value, notices }),
+    }
+}
+
+/// Parse the axis field. Empty means no axis (`None`). Accepts `180`, `x180`,
+/// `×005`, `@90`, `ax 90`, `90°`; `0` is stored as 180 with a notice.
+///
+/// ```
+/// use lensplane_core::parse_axis_field;
+/// assert_eq!(parse_axis_field("x005")?.value, Some(5));
+/// assert_eq!(parse_axis_field("")?.value, None);
+/// assert_eq!(parse_axis_field("181").unwrap_err().to_string(), "axis 181 is outside 1–180");
+/// assert_eq!(parse_axis_field("-10").unwrap_err().to_string(), "axis \u{2212}10 is outside 1–180");
+/// assert_eq!(parse_axis_field("90.5").unwrap_err().to_string(),
+///            "axis 90.5 must be a whole number of degrees");
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn parse_axis_field(text: &str) -> Result<Parsed<Option<u16>>, Error> {
+    let toks = lex(text, Field::Axis)?;
+    let mut i = 0;
+    if is_axis_mark(toks.first()) {
+        i = 1;
+    }
+    let Some(t) = toks.get(i) else {
+        return match toks.first() {
+            Some(_) => Err(Error::new(ErrorKind::Empty, Field::Axis, None)),
+            None => Ok(Parsed { value: None, notices: vec![] }),
+        };
+    };
+    let (value, notices) = match &t.tok {
+        Tok::Num(n) => axis(t, n)?,
+        _ => return Err(unexpected(t, Field::Axis)),
+    };
+    i += 1;
+    if matches!(toks.get(i).map(|t| &t.tok), Some(Tok::Degree)) {
+        i += 1;
+    }
+    match toks.get(i) {
+        Some(t) => Err(unexpected(t, Field::Axis)),
+        None => Ok(Parsed { value: Some(value), notices }),
+    }
+}
+
+impl Rx {
+    /// A prescription from the three fields of the entry form. An empty
+    /// cylinder means spherical; a non-zero cylinder needs an axis; an axis
+    /// with a zero cylinder is ignored with a notice.
+    ///
+    /// ```
+    /// use lensplane_core::Rx;
+    /// let p = Rx::from_fields("-8.00", "-2.00", "180")?;
+    /// assert_eq!(p.value, Rx::new(-8.0, -2.0, 180)?);
+    /// assert_eq!(Rx::from_fields("-8", "-2", "").unwrap_err().to_string(), "cylinder needs an axis");
+    /// # Ok::<(), lensplane_core::Error>(())
+    /// ```
+    pub fn from_fields(sphere: &str, cylinder: &str, axis: &str) -> Result<Parsed<Rx>, Error> {
+        let s = parse_sphere_field(sphere)?;
+        let c = parse_cylinder_field(cylinder)?;
+        let a = parse_axis_field(axis)?;
+        let mut notices = s.notices;
+        notices.extend(c.notices);
+        notices.extend(a.notices);
+        finish(s.value, c.value, a.value, notices, None)
+    }
+}
+
+fn single_number<'a>(
+    toks: &'a [Token],
+    field: Field,
+) -> Result<(&'a Token, &'a Num, Option<&'a Token>), Error> {
+    let Some(t) = toks.first() else {
+        return Err(Error::new(ErrorKind::Empty, field, None));
+    };
+    let Tok::Num(n) = &t.tok else {
+        return Err(unexpected(t, field));
+    };
+    let unit = toks.get(1);
+    if let Some(extra) = toks.get(2) {
+        return Err(unexpected(extra, field));
+    }
+    Ok((t, n, unit))
+}
+
+fn trim(x: f64) -> String {
+    let s = fmt_number(x);
+    s.trim_end_matches('0').trim_end_matches('.').to_string()
+}
+
+/// Parse a vertex distance in mm (`12`, `12 mm`, `1.2 cm`, `0.012 m`).
+/// `0` is a contact lens on the cornea. A bare number under 3 mm (but not
+/// 0) is questioned, since it is usually cm or m typed in a mm field; over
+/// 30 mm is rejected. The error is attributed to [`Field::VertexFrom`]; use
+/// [`Error::for_field`] for the other input.
+///
+/// ```
+/// use lensplane_core::parse_vertex_mm;
+/// assert_eq!(parse_vertex_mm("12")?.value.mm(), 12.0);
+/// assert_eq!(parse_vertex_mm("1.2").unwrap_err().to_string(),
+///            "vertex distance 1.2 mm is under 3 mm: did you mean 12 mm?");
+/// assert_eq!(parse_vertex_mm("0.012").unwrap_err().to_string(),
+///            "vertex distance 0.012 mm is under 3 mm: did you mean 12 mm?");
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn parse_vertex_mm(text: &str) -> Result<Parsed<VertexDistance>, Error> {
+    let field = Field::VertexFrom;
+    let toks = lex(text, field)?;
+    let (t, n, unit) = single_number(&toks, field)?;
+    if n.sign == Sign::Minus {
+        return Err(Error::new(
+            ErrorKind::OutOfRange { typed: format!("{} mm", n.typed()), limit: "0–30 mm", suggestions: vec![] },
+            field,
+            Some(t.start),
+        ));
+    }
+    if n.sign == Sign::PlusMinus {
+        return Err(unexpected(t, field));
+    }
+    let m = n.magnitude();
+    let mut notices = vec![];
+    let mm = match word(unit) {
+        None if unit.is_some() => return Err(unexpected(unit.unwrap_or(t), field)),
+        None | Some("mm") => m,
+        Some("cm") => {
+            notices.push(notice(NoticeKind::UnitConverted, field, format!("{} cm read as {} mm", trim(m), trim(m * 10.0))));
+            m * 10.0
+        }
+        Some("m") => {
+            notices.push(notice(NoticeKind::UnitConverted, field, format!("{} m read as {} mm", trim(m), trim(m * 1000.0))));
+            m * 1000.0
+        }
+        Some(_) => return Err(unexpected(unit.unwrap_or(t), field)),
+    };
+    if mm > 0.0 && mm < VERTEX_SHORT_MM {
+        let candidate = if mm < 0.1 { mm * 1000.0 } else { mm * 10.0 };
+        let suggestion = (VERTEX_SHORT_MM..=VERTEX_MAX_MM).contains(&candidate).then(|| trim(candidate));
+        return Err(Error::new(
+            ErrorKind::VertexTooShort { typed: n.typed(), suggestion },
+            field,
+            Some(t.start),
+        ));
+    }
+    let value = VertexDistance::from_mm(mm).map_err(|e| e.at(t.start))?;
+    Ok(Parsed { value, notices })
+}
+
+/// The unit a reading distance was typed in.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Default, Serialize, Deserialize)]
+pub enum LengthUnit {
+    /// Centimetres (default).
+    #[default]
+    Cm,
+    /// Inches.
+    Inches,
+}
+
+/// Parse a reading distance: `40 cm`, `40cm`, `16 in`, `16"`, `0.4 m`,
+/// `400 mm`. A bare number is read as cm only where it cannot be anything
+/// else (20–100); `16` (cm or inches?) and `0.4` (metres?) ask for the unit.
+///
+/// ```
+/// use lensplane_core::parse_reading_distance;
+/// assert_eq!(parse_reading_distance("40 cm")?.value.cm(), 40.0);
+/// assert!((parse_reading_distance("16 in")?.value.cm() - 40.64).abs() < 1e-9);
+/// assert_eq!(parse_reading_distance("16").unwrap_err().to_string(),
+///            "reading distance 16 needs a unit: cm or in?");
+/// assert_eq!(parse_reading_distance("0.4").unwrap_err().to_string(),
+///            "reading distance 0.4 needs a unit: 40 cm?");
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn parse_reading_distance(text: &str) -> Result<Parsed<ReadingDistance>, Error> {
+    let field = Field::ReadingDistance;
+    let toks = lex(text, field)?;
+    let (t, n, unit) = single_number(&toks, field)?;
+    if n.sign == Sign::Minus || n.sign == Sign::PlusMinus {
+        return Err(unexpected(t, field));
+    }
+    let m = n.magnitude();
+    let mut notices = vec![];
+    let (cm, _unit) = match (unit.map(|u| &u.tok), word(unit)) {
+        (None, _) => {
+            if (20.0..=READING_CM.1).contains(&m) {
+                notices.push(notice(NoticeKind::UnitAssumed, field, format!("{} read as cm", trim(m))));
+                (m, LengthUnit::Cm)
+            } else if m <= READING_CM.1 {
+                let suggestion = (m > 0.0 && m <= 1.0).then(|| format!("{} cm", trim(m * 100.0)));
+                return Err(Error::new(
+                    ErrorKind::NeedsUnit { typed: n.typed(), suggestion },
+                    field,
+                    Some(t.start),
+                ));
+            } else {
+                (m, LengthUnit::Cm)
+            }
+        }
+        (Some(Tok::Inches), _) | (_, Some("in" | "inch" | "inches")) => (m * CM_PER_INCH, LengthUnit::Inches),
+        (_, Some("cm")) => (m, LengthUnit::Cm),
+        (_, Some("m")) => (m * 100.0, LengthUnit::Cm),
+        (_, Some("mm")) => (m / 10.0, LengthUnit::Cm),
+        _ => return Err(unexpected(unit.unwrap_or(t), field)),
+    };
+    let value = ReadingDistance::from_cm(cm).map_err(|e| e.at(t.start))?;
+    Ok(Parsed { value, notices })
+}
+
+/// Parse an add. Always plus, so no sign is needed (`2.50`, `+2.50`,
+/// `add +2.50`, `2,5`); a minus is an error, as is a number that looks like
+/// it lost its decimal point (`250`).
+///
+/// ```
+/// use lensplane_core::parse_add;
+/// assert_eq!(parse_add("2.50")?.value.dioptres(), 2.5);
+/// assert_eq!(parse_add("-2.50").unwrap_err().to_string(), "an add is always plus");
+/// assert_eq!(parse_add("250").unwrap_err().to_string(),
+///            "add 250 is outside 0.00 to +4.00: did you mean +2.50?");
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
+    let field = Field::Add;
+    let all = lex(text, field)?;
+    let toks = if word(all.first()) == Some("add") { &all[1..] } else { &all[..] };
+    let (t, n, unit) = single_number(toks, field)?;
+    if let Some(u) = unit {
+        if word(Some(u)) != Some("d") {
+            return Err(unexpected(u, field));
+        }
+    }
+    match n.sign {
+        Sign::Minus => return Err(Error::new(ErrorKind::AddNotPlus, field, Some(t.start))),
+        Sign::PlusMinus if n.magnitude() != 0.0 => return Err(unexpected(t, field)),
+        _ => {}
+    }
+    let m = n.magnitude();
+    if m > ADD_MAX {
+        let suggestions = restored(n, ADD_MAX).into_iter().map(|c| crate::format::prose_power(c)).collect();
+        return Err(Error::new(
+            ErrorKind::OutOfRange { typed: n.typed(), limit: "0.00 to +4.00", suggestions },
+            field,
+            Some(t.start),
+        ));
+    }
+    let mut notices = vec![];
+    if n.comma {
+        notices.push(notice(NoticeKind::CommaDecimal, field, format!("read the comma as a decimal point: {}", fmt_power(m))));
+    }
+    if !is_on_step(m, 0.25) {
+        notices.push(notice(
+            NoticeKind::OffStep,
+            field,
+            format!("add {} is between quarter steps; nearest {}", fmt_power(m), fmt_power(round_to_step(m, 0.25, TieRule::default()))),
+        ));
+    }
+    let value = Add::new(m).map_err(|e| e.at(t.start))?;
+    Ok(Parsed { value, notices })
+}
+
+/// Parse an age in whole years (`50`, `50 y`, `50 years`).
+///
+/// ```
+/// use lensplane_core::parse_age;
+/// assert_eq!(parse_age("50")?.value.years(), 50);
+/// assert_eq!(parse_age("150").unwrap_err().to_string(), "age 150 is outside 1–110");
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn parse_age(text: &str) -> Result<Parsed<Age>, Error> {
+    let field = Field::Age;
+    let toks = lex(text, field)?;
+    let (t, n, unit) = single_number(&toks, field)?;
+    if let Some(u) = unit {
+        if !matches!(word(Some(u)), Some("y" | "yr" | "yrs" | "year" | "years" | "yo")) {
+            return Err(unexpected(u, field));
+        }
+    }
+    if n.frac.is_some() {
+        return Err(Error::new(ErrorKind::AgeNotWhole { typed: n.typed() }, field, Some(t.start)));
+    }
+    if n.sign == Sign::Minus || n.sign == Sign::PlusMinus || n.int.len() > 3 {
+        return Err(Error::new(
+            ErrorKind::OutOfRange { typed: n.typed(), limit: "1–110", suggestions: vec![] },
+            field,
+            Some(t.start),
+        ));
+    }
+    let years: u16 = n.int.parse().unwrap_or(u16::MAX);
+    let Ok(years) = u8::try_from(years) else {
+        return Err(Error::new(
+            ErrorKind::OutOfRange { typed: n.int.clone(), limit: "1–110", suggestions: vec![] },
+            field,
+            Some(t.start),
+        ));
+    };
+    let value = Age::new(years).map_err(|e| e.at(t.start))?;
+    Ok(Parsed { value, notices: vec![] })
+}

@@ -1,0 +1,182 @@
+//! Validation as data: sanity warnings returned with results, and the
+//! standing cautions, so the UI shows them without logic of its own.
+
+use serde::{Deserialize, Serialize};
+
+use crate::error::Field;
+use crate::format::{fmt_number, fmt_power};
+use crate::limits::{CYLINDER_WARN, MEASURE_VERTEX_ABOVE, SPHERE_WARN, VERTEX_MAX_MM, VERTEX_USUAL_MM};
+use crate::rounding::{is_on_step, round_to_step, TieRule};
+use crate::{compensate_power, Rx, VertexDistance};
+
+/// A warning: the result stands, but the practitioner should look again.
+#[derive(Clone, Debug, PartialEq, Eq, Serialize, Deserialize)]
+pub struct Warning {
+    /// What kind (a stable code for the UI and tests).
+    pub kind: WarningKind,
+    /// The input or result it belongs beside.
+    pub field: Field,
+    /// Plain words, with the figures concerned.
+    pub message: String,
+}
+
+/// The kinds of [`Warning`].
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+pub enum WarningKind {
+    /// The vertex change moves every meridian by less than a quarter step.
+    BelowQuarterStep,
+    /// A meridian beyond ±4 D: the vertex distance should be measured.
+    MeasureVertex,
+    /// A spectacle vertex distance outside 8–20 mm.
+    UnusualVertex,
+    /// An input power between quarter steps.
+    OffStep,
+    /// A meridian beyond ±20 D.
+    HighPower,
+    /// A cylinder above 6 D.
+    HighCylinder,
+    /// A contact-lens power outside the usual stock range.
+    OutsideStock,
+    /// A cylinder beyond the largest available toric cylinder.
+    BeyondToricRange,
+    /// Multifocal contact-lens "add" labels are not optical adds.
+    MultifocalLabels,
+    /// Amplitude by age is a population estimate.
+    PopulationEstimate,
+    /// Age where the age formulas are least reliable.
+    AmplitudeUnreliable,
+    /// The spectacle add is far from the tentative add for the age.
+    AddDiffersFromAge,
+    /// Trial the add at the real reading distance.
+    TrialAtDistance,
+}
+
+/// The standing cautions, for the UI to show with every panel.
+pub const CAUTIONS: [&str; 6] = [
+    "Results are starting points, not a prescription: confirm by over-refraction and acuity.",
+    "Powers are referred to the corneal vertex (thin-lens model): no tear lens, rigid-lens astigmatism, flexure or toric rotation.",
+    "Measure the vertex distance when any meridian exceeds about ±4 D.",
+    "Myopic presbyopes moving to contact lenses need more accommodation and convergence; hyperopes less.",
+    "Screening staff refer, not diagnose. Store no patient identifiers.",
+    "Defer to local regulations and licensed practice.",
+];
+
+pub(crate) fn warn(kind: WarningKind, field: Field, message: String) -> Warning {
+    Warning { kind, field, message }
+}
+
+/// Warnings about a prescription as entered: off-step, very high powers.
+///
+/// ```
+/// use lensplane_core::{rx_warnings, Rx, WarningKind};
+/// let w = rx_warnings(&Rx::new(-2.30, -1.0, 180)?);
+/// assert_eq!(w[0].kind, WarningKind::OffStep);
+/// assert_eq!(w[0].message, "sphere -2.30 is between quarter steps; nearest -2.25");
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn rx_warnings(rx: &Rx) -> Vec<Warning> {
+    let mut out = vec![];
+    for (value, field, noun) in [(rx.sphere(), Field::Sphere, "sphere"), (rx.cylinder(), Field::Cylinder, "cylinder")] {
+        if !is_on_step(value, 0.25) {
+            out.push(warn(
+                WarningKind::OffStep,
+                field,
+                format!(
+                    "{noun} {} is between quarter steps; nearest {}",
+                    fmt_power(value),
+                    fmt_power(round_to_step(value, 0.25, TieRule::default()))
+                ),
+            ));
+        }
+    }
+    let strongest = strongest_meridian(rx);
+    if strongest.abs() > SPHERE_WARN {
+        out.push(warn(
+            WarningKind::HighPower,
+            Field::Sphere,
+            format!("a meridian of {} is beyond ±20 D: check the entry", fmt_power(strongest)),
+        ));
+    }
+    if rx.cylinder().abs() > CYLINDER_WARN {
+        out.push(warn(
+            WarningKind::HighCylinder,
+            Field::Cylinder,
+            format!("cylinder {} is above 6 D: check the entry", fmt_power(rx.cylinder())),
+        ));
+    }
+    out
+}
+
+pub(crate) fn strongest_meridian(rx: &Rx) -> f64 {
+    let c = rx.meridians();
+    let (a, b) = (c.first().power, c.second().power);
+    if a.abs() >= b.abs() {
+        a
+    } else {
+        b
+    }
+}
+
+/// Warnings about a move between vertex distances: unusual spectacle
+/// distances, high powers whose vertex distance should be measured (with
+/// what a 2 mm error would change), and changes below a quarter step.
+///
+/// ```
+/// use lensplane_core::{vertex_warnings, Rx, VertexDistance, WarningKind};
+/// let w = vertex_warnings(&Rx::sphere_only(-8.0)?, VertexDistance::SPECTACLES, VertexDistance::CORNEA);
+/// assert_eq!(w[0].kind, WarningKind::MeasureVertex);
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn vertex_warnings(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Vec<Warning> {
+    let mut out = vec![];
+    for (d, field) in [(from, Field::VertexFrom), (to, Field::VertexTo)] {
+        if !d.is_cornea() && !(VERTEX_USUAL_MM.0..=VERTEX_USUAL_MM.1).contains(&d.mm()) {
+            out.push(warn(
+                WarningKind::UnusualVertex,
+                field,
+                format!("vertex distance {} mm is unusual for spectacles (usually 8–20 mm): check it", trim(d.mm())),
+            ));
+        }
+    }
+    if from == to {
+        return out;
+    }
+    let strongest = strongest_meridian(rx);
+    if strongest.abs() > MEASURE_VERTEX_ABOVE {
+        // What a 2 mm error in the spectacle vertex distance would change.
+        let spectacle = if from.is_cornea() { to } else { from };
+        let shifted_mm = if spectacle.mm() + 2.0 <= VERTEX_MAX_MM { spectacle.mm() + 2.0 } else { spectacle.mm() - 2.0 };
+        let shifted = VertexDistance::from_mm(shifted_mm).unwrap_or(spectacle);
+        let (f2, t2) = if from.is_cornea() { (from, shifted) } else { (shifted, to) };
+        let sensitivity = match (compensate_power(strongest, from, to), compensate_power(strongest, f2, t2)) {
+            (Ok(a), Ok(b)) => Some((a - b).abs()),
+            _ => None,
+        };
+        let tail = sensitivity.map_or(String::new(), |s| format!("; 2 mm changes this result by {} D", fmt_number(s)));
+        out.push(warn(
+            WarningKind::MeasureVertex,
+            if from.is_cornea() { Field::VertexTo } else { Field::VertexFrom },
+            format!("a meridian of {} is beyond ±4 D: measure the vertex distance{tail}", fmt_power(strongest)),
+        ));
+    }
+    let cross = rx.meridians();
+    let changes: Vec<f64> = cross
+        .both()
+        .iter()
+        .filter_map(|m| compensate_power(m.power, from, to).ok().map(|p| (p - m.power).abs()))
+        .collect();
+    let largest = changes.iter().copied().fold(0.0, f64::max);
+    if changes.len() == 2 && largest > 0.0 && largest < 0.25 {
+        out.push(warn(
+            WarningKind::BelowQuarterStep,
+            Field::Result,
+            format!("the change is below a quarter step ({} D at most): vertex makes little difference here", fmt_number(largest)),
+        ));
+    }
+    out
+}
+
+fn trim(x: f64) -> String {
+    let s = fmt_number(x);
+    s.trim_end_matches('0').trim_end_matches('.').to_string()
+}

@@ -4,13 +4,126 @@
 //! prescriptions between optical planes (vertex compensation), spherical
 //! equivalents and spherical substitutes, rounding to orderable powers, toric
 //! contact-lens mapping, and near (add) effectivity. Pure functions, no I/O,
-//! no web dependencies.
+//! no web dependencies, no `unsafe`.
 //!
-//! Results are starting points, never a prescription: confirm by
+//! **Results are starting points, never a prescription**: confirm by
 //! over-refraction and acuity, and defer to local regulations and licensed
-//! practice.
+//! practice. [`CAUTIONS`] lists the standing cautions for the UI.
 //!
-//! (The full model description is being written; see the module list.)
+//! ## The model
+//!
+//! * **Thin lenses in air.** Every lens is a thin lens at one plane; no tear
+//!   lens, rigid-lens astigmatism, flexure or toric rotation.
+//! * **The eye's reference plane is the corneal vertex.** "At the eye" means
+//!   at the cornea, where a contact lens sits ([`VertexDistance::CORNEA`],
+//!   0 mm). The eye's principal point lies ~1.35 mm further in; using it
+//!   would change ocular figures by only ~0.1–0.2 D at ±10 D.
+//! * **Signs.** Light travels left to right. Powers and vergences are in
+//!   dioptres (1/m); converging is plus. A real near object has negative
+//!   vergence (L = −1/distance). Cylinders may be minus or plus form;
+//!   axes are 1–180 in ISO 8429 notation (180, never 0).
+//! * **Vertex compensation** keeps the far point: F' = F / (1 − δ·F) with
+//!   δ = d_from − d_to in metres, positive when the correction moves toward
+//!   the eye (which needs more plus). Cylinders: each principal meridian on
+//!   its own ([`Rx::meridians`]), then recombined; never the cylinder alone.
+//! * **Near**: the vergence chain through the correction ([`near_figures`]),
+//!   per meridian, never the V(F + A) − V(F) shortcut.
+//! * **Astigmatic residuals** are power-vector differences (Thibos, Wheeler
+//!   & Horner 1997), which handles obliquely crossed cylinders.
+//!
+//! ## Units at the edges
+//!
+//! Vertex distances in **mm** ([`VertexDistance::from_mm`]), reading
+//! distances in **cm** or **inches** ([`ReadingDistance::from_cm`],
+//! [`ReadingDistance::from_inches`]), powers, adds and accommodation in
+//! **D**, ages in whole years. Formulas take metres; conversion happens in
+//! those types only.
+//!
+//! ## Where to find things
+//!
+//! | concern | entry points | file |
+//! |---|---|---|
+//! | prescription, transposition | [`Rx`] | `rx.rs` |
+//! | principal meridians | [`PowerCross`], [`Meridian`] | `meridians.rs` |
+//! | power vectors | [`PowerVector`] | `vectors.rs` |
+//! | parsing typed text | [`parse_rx`], [`Rx::from_fields`], [`parse_sphere_field`], [`parse_cylinder_field`], [`parse_axis_field`], [`parse_vertex_mm`], [`parse_reading_distance`], [`parse_add`], [`parse_age`] | `parse.rs`, `lex.rs` |
+//! | trade notation out | `Display for Rx`, [`fmt_power`], [`fmt_sphere`], [`fmt_number`], [`fmt_dioptres`] | `format.rs` |
+//! | vertex | [`compensate`], [`compensate_power`], [`effective_power`] | `vertex.rs` |
+//! | rounding, ladders, residuals | [`TieRule`], [`Ladder`], [`order_lens`], [`OrderSettings`] | `rounding.rs` |
+//! | toric contact lenses | [`choose_toric`], [`ToricSettings`] | `toric.rs` |
+//! | spherical equivalent, substitutes | [`spherical_equivalent_at`], [`assess_substitute`] | `equivalent.rs` |
+//! | near | [`near_figures`], [`NearGeometry`] | `near.rs` |
+//! | amplitude by age | [`hofstetter`], [`tentative_add`] | `amplitude.rs` |
+//! | warnings, cautions | [`Warning`], [`rx_warnings`], [`vertex_warnings`], [`CAUTIONS`] | `warnings.rs` |
+//! | limits | hard limits and warning thresholds | `limits.rs` |
+//! | checked quantities | [`VertexDistance`], [`ReadingDistance`], [`Age`], [`Add`], [`EyePair`] | `units.rs` |
+//! | the one error type | [`Error`], [`Field`] | `error.rs` |
+//! | panel reports | [`vertex_report`], [`equivalent_report`], [`near_report`] | `report_*.rs` |
+//!
+//! The UI calls one report function per eye and panel and displays what it
+//! returns; it does no arithmetic, not even rounding for display (use the
+//! `fmt_*` helpers and `Display`).
+//!
+//! ## Limits
+//!
+//! Hard limits (errors): sphere ±30 D, cylinder up to 10 D, axis 1–180,
+//! vertex 0–30 mm, reading distance 10–100 cm, age 1–110, add 0 to +4.00.
+//! Warnings: a meridian beyond ±20 D, cylinder above 6 D, a spectacle vertex
+//! outside 8–20 mm, any meridian beyond ±4 D (measure the vertex distance),
+//! a change below a quarter step, off-step input, contact-lens powers outside
+//! the stock range. Within the hard limits no function returns NaN or
+//! infinity: where the far point lies at (or practically at) the new lens
+//! plane the result is an [`Error`].
+//!
+//! ## Decisions where the notes were silent
+//!
+//! Each is tested in `tests/decisions.rs`.
+//!
+//! 1. **Singular moves.** A compensated meridian beyond ±100 D is reported as
+//!    an error ("no finite lens…"), as is 1 − δF = 0 exactly. Within the
+//!    input limits this also covers every move that would put the far point
+//!    between the old and new planes.
+//! 2. **Spherical equivalent at another plane**: meridians compensated first,
+//!    then S + C/2 (differs from the other order by < 0.01 D at −8/−2).
+//! 3. **Display rounding** is half away from zero on the decimal value
+//!    (2.675 → 2.68), separate from order rounding, which uses the explicit
+//!    [`TieRule`] (default toward plus). Zero prints `0.00` ([`fmt_power`])
+//!    or `plano` (sphere); a cylinder that shows as 0.00 prints as `DS`;
+//!    a plano spherical prescription prints `plano`. Axes print without
+//!    leading zeros (`×5`). Figures use ASCII `-`; error messages use the
+//!    typographic minus `−` as in printed prose.
+//! 4. **Rounding per meridian** is what reports order; sphere-and-cylinder
+//!    rounding ([`round_separately`]) is available only for comparison.
+//! 5. **Toric offer.** Shown when the target is the cornea and the cylinder
+//!    there rounds (ties to the smaller) to at least the smallest available
+//!    toric cylinder. Nearest cylinder, ties to the smaller; axis to the
+//!    nearest step, exact half steps up (5° → 10°), 0 → 180.
+//! 6. **Substitute verdict.** Both thresholds (cylinder, cylinder:sphere in
+//!    minus-cylinder form) met → suitable; one → borderline; neither →
+//!    unsuitable. Oblique (31–59°, 121–149°) and against-the-rule (60–120°)
+//!    cylinders get the lower limit (default 0.50 D). Mixed astigmatism
+//!    (meridians of opposite sign, each ≥ 0.125 D from zero) → unsuitable.
+//! 7. **Near summary figure** is computed for the spherical equivalent of the
+//!    distance prescription taken as a sphere; the per-meridian figures are
+//!    given beside it. The orderable near prescription is the orderable
+//!    distance prescription plus the rounded summary add.
+//! 8. **Tentative add** is given from Hofstetter's minimum (conservative) and
+//!    average amplitudes; the age formulas are flagged as least reliable from
+//!    60 and under 10.
+//! 9. **Typed input.** A bare third number after a sphero-cylinder is read
+//!    as the axis (with a notice); a zero cylinder needs no axis (a given axis
+//!    is ignored with a notice); an axis without a cylinder is an error.
+//!    Implied-decimal suggestions are offered only when they land on a quarter
+//!    step within ±20 D (sphere) or ±6 D (cylinder). A bare reading distance
+//!    is taken as cm only from 20 to 100 (10–19 could be inches; under 10
+//!    could be metres); vertex distances typed in cm or m are converted with a
+//!    notice, bare ones under 3 mm are questioned.
+//! 10. **Adds** run from 0 (no add) to +4.00 D; higher (low-vision) adds are
+//!     out of scope.
+//! 11. **Reading distance "from the eye"** means from the corneal vertex; the
+//!     object is then (distance − vertex) from the spectacle lens.
+//! 12. **Vertex warning sensitivity**: the "measure the vertex distance"
+//!     warning states what a 2 mm error in the spectacle distance would change.
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
 

@@ -16,6 +16,7 @@ fn deploy_base() -> String {
 
 #[component]
 pub fn App() -> impl IntoView {
+    provide_context(crate::history::History::new());
     view! {
         <Router base=deploy_base()>
             <header class="masthead">

@@ -1,23 +1,11 @@
 //! One module per destination.
 
-use leptos::prelude::*;
+mod equivalent;
+mod history;
+mod near;
+mod vertex;
 
-#[component]
-pub fn VertexPanel() -> impl IntoView {
-    view! { <h1>"Vertex"</h1> }
-}
-
-#[component]
-pub fn EquivalentPanel() -> impl IntoView {
-    view! { <h1>"Spherical equivalent"</h1> }
-}
-
-#[component]
-pub fn NearPanel() -> impl IntoView {
-    view! { <h1>"Near"</h1> }
-}
-
-#[component]
-pub fn HistoryPanel() -> impl IntoView {
-    view! { <h1>"History"</h1> }
-}
+pub use equivalent::EquivalentPanel;
+pub use history::HistoryPanel;
+pub use near::NearPanel;
+pub use vertex::VertexPanel;

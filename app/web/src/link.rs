@@ -1,0 +1,179 @@
+//! The link format: every calculation is a URL that can be bookmarked,
+//! shared, stored in the history and opened offline.
+//!
+//! ```text
+//! /vertex?r=RX&l=RX&from=MM&to=MM
+//! /equivalent?r=RX&l=RX&from=MM&to=MM
+//! /near?r=RX&l=RX&add=D&from=MM&to=MM&reading=CM&measured=lens|eye&age=YEARS
+//! /history
+//! ```
+//!
+//! Values are kept exactly as typed (the panels parse them through the core),
+//! so a link reproduces what was on screen, errors included. In values, `%20`
+//! is a space and a literal `+` is a plus sign (never a space): `r=+2.00`
+//! means plus two dioptres.
+
+use percent_encoding::{percent_decode_str, utf8_percent_encode, AsciiSet, NON_ALPHANUMERIC};
+
+/// Everything but the unreserved characters of RFC 3986 is escaped, so `+`
+/// travels as `%2B` and a space as `%20`.
+const VALUE: &AsciiSet = &NON_ALPHANUMERIC.remove(b'-').remove(b'.').remove(b'_').remove(b'~');
+
+/// The four destinations of the app.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Destination {
+    Vertex,
+    Equivalent,
+    Near,
+    History,
+}
+
+impl Destination {
+    pub const ALL: [Destination; 4] = [Destination::Vertex, Destination::Equivalent, Destination::Near, Destination::History];
+
+    /// The route, relative to where the app is deployed.
+    pub fn path(self) -> &'static str {
+        match self {
+            Destination::Vertex => "/vertex",
+            Destination::Equivalent => "/equivalent",
+            Destination::Near => "/near",
+            Destination::History => "/history",
+        }
+    }
+
+    /// The destination a route path (without the deploy base) names.
+    pub fn from_path(path: &str) -> Option<Destination> {
+        let trimmed = path.trim_end_matches('/');
+        Destination::ALL.into_iter().find(|d| d.path() == trimmed)
+    }
+
+    /// The query keys this destination understands, in the order links write them.
+    pub fn keys(self) -> &'static [&'static str] {
+        match self {
+            Destination::Vertex => &["r", "l", "from", "to", "form"],
+            Destination::Equivalent => &["r", "l", "from", "to", "cylmax", "ratio"],
+            Destination::Near => &["r", "l", "add", "from", "to", "reading", "unit", "measured", "age"],
+            Destination::History => &["q", "panel"],
+        }
+    }
+}
+
+/// A query string as ordered key/value pairs of raw (decoded) text.
+#[derive(Clone, Debug, Default, PartialEq, Eq)]
+pub struct Query(Vec<(String, String)>);
+
+impl Query {
+    /// Parses `?a=1&b=2` (the `?` is optional). Later duplicates win.
+    ///
+    /// ```
+    /// use lensplane_web::link::Query;
+    /// let q = Query::parse("?r=%2B2.00%20-1.00%20x90&from=12");
+    /// assert_eq!(q.get("r"), Some("+2.00 -1.00 x90"));
+    /// assert_eq!(Query::parse("r=+2.00").get("r"), Some("+2.00"));
+    /// ```
+    pub fn parse(raw: &str) -> Query {
+        let mut q = Query::default();
+        for pair in raw.trim_start_matches('?').split('&').filter(|p| !p.is_empty()) {
+            let (k, v) = pair.split_once('=').unwrap_or((pair, ""));
+            q.set(&decode(k), &decode(v));
+        }
+        q
+    }
+
+    pub fn get(&self, key: &str) -> Option<&str> {
+        self.0.iter().find(|(k, _)| k == key).map(|(_, v)| v.as_str())
+    }
+
+    /// Sets a value; an empty value removes the key.
+    pub fn set(&mut self, key: &str, value: &str) {
+        self.0.retain(|(k, _)| k != key);
+        if !value.trim().is_empty() {
+            self.0.push((key.to_string(), value.to_string()));
+        }
+    }
+
+    pub fn with(mut self, key: &str, value: &str) -> Query {
+        self.set(key, value);
+        self
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.0.is_empty()
+    }
+
+    /// Encodes the pairs in the order of `keys` (unknown keys last), without `?`.
+    ///
+    /// ```
+    /// use lensplane_web::link::Query;
+    /// let q = Query::default().with("to", "0").with("r", "+2.00 -1.00 ×90");
+    /// assert_eq!(q.encode(&["r", "to"]), "r=%2B2.00%20-1.00%20%C3%9790&to=0");
+    /// ```
+    pub fn encode(&self, keys: &[&str]) -> String {
+        let rank = |k: &str| keys.iter().position(|x| *x == k).unwrap_or(keys.len());
+        let mut pairs: Vec<&(String, String)> = self.0.iter().collect();
+        pairs.sort_by_key(|(k, _)| rank(k));
+        pairs
+            .iter()
+            .map(|(k, v)| format!("{}={}", utf8_percent_encode(k, VALUE), utf8_percent_encode(v, VALUE)))
+            .collect::<Vec<_>>()
+            .join("&")
+    }
+}
+
+fn decode(s: &str) -> String {
+    percent_decode_str(s).decode_utf8_lossy().into_owned()
+}
+
+/// A full link (path and query) for a destination, relative to the deploy base.
+///
+/// ```
+/// use lensplane_web::link::{href, Destination, Query};
+/// let q = Query::default().with("r", "-8.00 -2.00 x180").with("from", "12").with("to", "0");
+/// assert_eq!(href(Destination::Vertex, &q), "/vertex?r=-8.00%20-2.00%20x180&from=12&to=0");
+/// assert_eq!(href(Destination::History, &Query::default()), "/history");
+/// ```
+pub fn href(dest: Destination, query: &Query) -> String {
+    let encoded = query.encode(dest.keys());
+    if encoded.is_empty() {
+        dest.path().to_string()
+    } else {
+        format!("{}?{}", dest.path(), encoded)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn every_typed_character_survives_a_round_trip() {
+        let typed = ["−6.00 –1.25 ×005", "-2,50", "pl", "+1.00 DS", "-2.00/-1.00x180", "a&b=c%d", "180°", "  "];
+        for t in typed {
+            let q = Query::default().with("r", t);
+            let back = Query::parse(&q.encode(&["r"]));
+            assert_eq!(back.get("r"), if t.trim().is_empty() { None } else { Some(t) }, "{t:?}");
+        }
+    }
+
+    #[test]
+    fn a_literal_plus_is_a_sign_not_a_space() {
+        assert_eq!(Query::parse("?r=+12.00&l=%2B4").get("r"), Some("+12.00"));
+        assert_eq!(Query::parse("?r=+12.00&l=%2B4").get("l"), Some("+4"));
+    }
+
+    #[test]
+    fn destinations_round_trip_their_paths() {
+        for d in Destination::ALL {
+            assert_eq!(Destination::from_path(d.path()), Some(d));
+            assert_eq!(Destination::from_path(&format!("{}/", d.path())), Some(d));
+        }
+        assert_eq!(Destination::from_path("/elsewhere"), None);
+    }
+
+    #[test]
+    fn malformed_queries_do_not_panic() {
+        let q = Query::parse("?=&&r&%zz=%e2%28&to=%");
+        assert_eq!(q.get("r"), None);
+        assert_eq!(q.get("to"), Some("%"));
+    }
+}

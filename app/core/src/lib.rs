@@ -56,6 +56,7 @@
 //! | amplitude by age | [`hofstetter`], [`tentative_add`] | `amplitude.rs` |
 //! | warnings, cautions | [`Warning`], [`rx_warnings`], [`vertex_warnings`], [`CAUTIONS`] | `warnings.rs` |
 //! | limits | hard limits and warning thresholds | `limits.rs` |
+//! | ± control and steppers of the entry form | [`toggle_sign`], [`step_text`] | `editing.rs` |
 //! | checked quantities | [`VertexDistance`], [`ReadingDistance`], [`Age`], [`Add`], [`EyePair`] | `units.rs` |
 //! | the one error type | [`Error`], [`Field`] | `error.rs` |
 //! | panel reports | [`vertex_report`], [`equivalent_report`], [`near_report`] | `report_*.rs` |
@@ -128,6 +129,7 @@
 #![warn(missing_docs)]
 
 mod amplitude;
+mod editing;
 mod equivalent;
 mod error;
 mod format;
@@ -148,6 +150,7 @@ mod vertex;
 mod warnings;
 
 pub use amplitude::{amplitude_reliable, hofstetter, tentative_add, Amplitude, TentativeAdd};
+pub use editing::{step_text, toggle_sign, StepKind};
 pub use equivalent::{
     assess_substitute, spherical_equivalent_at, Orientation, SubstituteAssessment,
     SubstituteSettings, Verdict,

@@ -125,6 +125,11 @@
 //!     object is then (distance − vertex) from the spectacle lens.
 //! 12. **Vertex warning sensitivity**: the "measure the vertex distance"
 //!     warning states what a 2 mm error in the spectacle distance would change.
+//! 13. **Input limits are for input.** The hard limits apply to the sphere
+//!     and cylinder as typed (in the form typed). Results may exceed them
+//!     (+20.00 at 20 mm is +33.33 at the cornea; −25.00 −8.00 is −33.00
+//!     +8.00 in plus-cylinder form): they print, but are not accepted back as
+//!     input.
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
 

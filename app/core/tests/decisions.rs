@@ -205,3 +205,11 @@ fn d12_measure_vertex_warning_states_the_sensitivity() {
     assert_eq!(m.message, "a meridian of +12.00 is beyond ±4 D: measure the vertex distance; 2 mm changes this result by 0.40 D");
     assert_eq!(m.field, Field::VertexFrom);
 }
+
+#[test]
+fn d13_results_may_exceed_the_input_limits_and_are_not_typed_back() {
+    // [derived] +20.00 at 20 mm moved to the cornea: 20 / 0.6 = +33.33.
+    let cl = compensate(&Rx::sphere_only(20.0).unwrap(), mm(20.0), VertexDistance::CORNEA).unwrap();
+    assert_eq!(cl.to_string(), "+33.33 DS");
+    assert_eq!(parse_rx(&cl.to_string()).unwrap_err().to_string(), "sphere +33.33 is outside ±30 D");
+}

@@ -14,7 +14,10 @@ fn table_entries() -> Vec<(f64, VertexDistance)> {
     let mut out = Vec::new();
     for q in -80..=80 {
         for mm in 8..=20 {
-            out.push((f64::from(q) * 0.25, VertexDistance::from_mm(f64::from(mm)).unwrap()));
+            out.push((
+                f64::from(q) * 0.25,
+                VertexDistance::from_mm(f64::from(mm)).unwrap(),
+            ));
         }
     }
     out
@@ -25,7 +28,9 @@ fn table_entries() -> Vec<(f64, VertexDistance)> {
 fn prescriptions() -> Vec<String> {
     let mut state: u64 = 0x9E37_79B9_7F4A_7C15;
     let mut next = move |n: u64| {
-        state = state.wrapping_mul(6364136223846793005).wrapping_add(1442695040888963407);
+        state = state
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
         (state >> 33) % n
     };
     let mut out = Vec::with_capacity(10_000);
@@ -33,7 +38,11 @@ fn prescriptions() -> Vec<String> {
         let sphere = (next(61) as f64 - 40.0) * 0.25;
         let cyl = -(next(13) as f64) * 0.25;
         let axis = 1 + next(180);
-        let s = if sphere == 0.0 { "pl".to_string() } else { format!("{sphere:+.2}") };
+        let s = if sphere == 0.0 {
+            "pl".to_string()
+        } else {
+            format!("{sphere:+.2}")
+        };
         let text = match (cyl == 0.0, next(6)) {
             (true, 0) => format!("{s} DS"),
             (true, _) => s,
@@ -79,7 +88,10 @@ fn bench(c: &mut Criterion) {
         })
     });
     let texts = prescriptions();
-    assert!(texts.iter().all(|t| parse_rx(t).is_ok()), "the benchmark inputs must all parse");
+    assert!(
+        texts.iter().all(|t| parse_rx(t).is_ok()),
+        "the benchmark inputs must all parse"
+    );
     c.bench_function("parse 10,000 prescriptions", |b| {
         b.iter(|| {
             let mut ok = 0;

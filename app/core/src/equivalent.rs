@@ -20,7 +20,11 @@ use crate::{compensate, Rx, VertexDistance};
 /// assert!((se - -8.1139).abs() < 1e-4);
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
-pub fn spherical_equivalent_at(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Result<f64, Error> {
+pub fn spherical_equivalent_at(
+    rx: &Rx,
+    from: VertexDistance,
+    to: VertexDistance,
+) -> Result<f64, Error> {
     Ok(compensate(rx, from, to)?.spherical_equivalent())
 }
 
@@ -40,7 +44,11 @@ pub struct SubstituteSettings {
 
 impl Default for SubstituteSettings {
     fn default() -> SubstituteSettings {
-        SubstituteSettings { max_cylinder: 0.75, max_cylinder_oblique_or_against: 0.5, max_ratio: 0.25 }
+        SubstituteSettings {
+            max_cylinder: 0.75,
+            max_cylinder_oblique_or_against: 0.5,
+            max_ratio: 0.25,
+        }
     }
 }
 
@@ -53,11 +61,16 @@ impl SubstituteSettings {
     /// ```
     pub fn validate(&self) -> Result<(), Error> {
         let ok = |x: f64, max: f64| x.is_finite() && (0.0..=max).contains(&x);
-        if ok(self.max_cylinder, 10.0) && ok(self.max_cylinder_oblique_or_against, 10.0) && ok(self.max_ratio, 1.0) {
+        if ok(self.max_cylinder, 10.0)
+            && ok(self.max_cylinder_oblique_or_against, 10.0)
+            && ok(self.max_ratio, 1.0)
+        {
             Ok(())
         } else {
             Err(Error::new(
-                ErrorKind::BadSetting { what: "substitute thresholds must be 0–10 D and a ratio of 0–1" },
+                ErrorKind::BadSetting {
+                    what: "substitute thresholds must be 0–10 D and a ratio of 0–1",
+                },
                 Field::Setting,
                 None,
             ))
@@ -175,9 +188,16 @@ pub fn assess_substitute(rx: &Rx, settings: &SubstituteSettings) -> SubstituteAs
         Some(r) if r > 0.0 => format!("1:{:.1}", 1.0 / r),
         _ => "undefined (plano sphere)".to_string(),
     };
-    let limit_ratio = if settings.max_ratio > 0.0 { format!("1:{:.1}", 1.0 / settings.max_ratio) } else { "0".into() };
+    let limit_ratio = if settings.max_ratio > 0.0 {
+        format!("1:{:.1}", 1.0 / settings.max_ratio)
+    } else {
+        "0".into()
+    };
     let (verdict, reason) = if cyl == 0.0 {
-        (Verdict::Suitable, "no cylinder: the spherical lens is the full correction".to_string())
+        (
+            Verdict::Suitable,
+            "no cylinder: the spherical lens is the full correction".to_string(),
+        )
     } else if mixed {
         (
             Verdict::Unsuitable,
@@ -215,5 +235,13 @@ pub fn assess_substitute(rx: &Rx, settings: &SubstituteSettings) -> SubstituteAs
             ),
         }
     };
-    SubstituteAssessment { verdict, orientation, mixed, residual_astigmatism: cyl, ratio, cylinder_limit: limit, reason }
+    SubstituteAssessment {
+        verdict,
+        orientation,
+        mixed,
+        residual_astigmatism: cyl,
+        ratio,
+        cylinder_limit: limit,
+        reason,
+    }
 }

@@ -97,7 +97,11 @@ pub(crate) enum ErrorKind {
     NeedsSign { magnitude: f64 },
     /// A value beyond the hard limit; `suggestions` are readings with the
     /// decimal point restored (never applied automatically).
-    OutOfRange { typed: String, limit: &'static str, suggestions: Vec<String> },
+    OutOfRange {
+        typed: String,
+        limit: &'static str,
+        suggestions: Vec<String>,
+    },
     /// A cylinder without an axis.
     CylinderNeedsAxis,
     /// An axis without a cylinder.
@@ -109,9 +113,15 @@ pub(crate) enum ErrorKind {
     /// A number with two decimal separators, like "2,5,90".
     Ambiguous { text: String },
     /// A vertex distance under 3 mm (but not 0).
-    VertexTooShort { typed: String, suggestion: Option<String> },
+    VertexTooShort {
+        typed: String,
+        suggestion: Option<String>,
+    },
     /// A reading distance with no unit where the unit matters.
-    NeedsUnit { typed: String, suggestion: Option<String> },
+    NeedsUnit {
+        typed: String,
+        suggestion: Option<String>,
+    },
     /// A negative add.
     AddNotPlus,
     /// An age with a fraction.
@@ -124,7 +134,11 @@ pub(crate) enum ErrorKind {
 
 impl Error {
     pub(crate) fn new(kind: ErrorKind, field: Field, position: Option<usize>) -> Error {
-        Error { kind, field, position }
+        Error {
+            kind,
+            field,
+            position,
+        }
     }
 
     /// The input (or result) this error concerns.
@@ -165,7 +179,6 @@ impl Error {
         self.position = Some(position);
         self
     }
-
 }
 
 impl fmt::Display for Error {
@@ -178,7 +191,11 @@ impl fmt::Display for Error {
                 let m = m.trim_start_matches('+');
                 write!(f, "{noun} needs a sign: +{m} or \u{2212}{m}?")
             }
-            ErrorKind::OutOfRange { typed, limit, suggestions } => {
+            ErrorKind::OutOfRange {
+                typed,
+                limit,
+                suggestions,
+            } => {
                 write!(f, "{noun} {typed} is outside {limit}")?;
                 if !suggestions.is_empty() {
                     write!(f, ": did you mean {}?", suggestions.join(" or "))?;
@@ -192,7 +209,10 @@ impl fmt::Display for Error {
             }
             ErrorKind::Unexpected { text } => write!(f, "unexpected \"{text}\""),
             ErrorKind::Ambiguous { text } => {
-                write!(f, "\"{text}\" is ambiguous: use one decimal point per number")
+                write!(
+                    f,
+                    "\"{text}\" is ambiguous: use one decimal point per number"
+                )
             }
             ErrorKind::VertexTooShort { typed, suggestion } => {
                 write!(f, "vertex distance {typed} mm is under 3 mm")?;

@@ -34,7 +34,11 @@ impl Num {
             Some(f) if !f.is_empty() => format!("{}.{}", self.int, f),
             _ => self.int.clone(),
         };
-        let text = if text.is_empty() { "0".to_string() } else { text };
+        let text = if text.is_empty() {
+            "0".to_string()
+        } else {
+            text
+        };
         text.parse::<f64>().unwrap_or(f64::INFINITY)
     }
 
@@ -88,9 +92,10 @@ fn normalise(c: char) -> (char, bool) {
         '\u{2212}' | '\u{2010}' | '\u{2011}' | '\u{2012}' | '\u{2013}' | '\u{2014}'
         | '\u{2015}' | '\u{FE58}' | '\u{FE63}' | '\u{FF0D}' => ('-', true),
         '\u{FF0B}' => ('+', false),
-        '\u{FF10}'..='\u{FF19}' => {
-            (char::from_u32(c as u32 - 0xFF10 + u32::from(b'0')).unwrap_or('0'), false)
-        }
+        '\u{FF10}'..='\u{FF19}' => (
+            char::from_u32(c as u32 - 0xFF10 + u32::from(b'0')).unwrap_or('0'),
+            false,
+        ),
         '\u{FF0E}' => ('.', false),
         '\u{FF0C}' => (',', false),
         '\u{FF0F}' => ('/', false),
@@ -133,17 +138,29 @@ pub(crate) fn lex(text: &str, field: Field) -> Result<Vec<Token>, Error> {
                     _ => Sign::PlusMinus,
                 };
                 let (num, end) = number(&mapped, j, sign, typographic, field, start, &raw)?;
-                out.push(Token { tok: Tok::Num(num), start, raw: raw(start, end) });
+                out.push(Token {
+                    tok: Tok::Num(num),
+                    start,
+                    raw: raw(start, end),
+                });
                 i = end;
             } else {
-                out.push(Token { tok: Tok::Other(c), start, raw: raw(start, i + 1) });
+                out.push(Token {
+                    tok: Tok::Other(c),
+                    start,
+                    raw: raw(start, i + 1),
+                });
                 i += 1;
             }
             continue;
         }
         if starts_number(i) {
             let (num, end) = number(&mapped, i, Sign::None, false, field, start, &raw)?;
-            out.push(Token { tok: Tok::Num(num), start, raw: raw(start, end) });
+            out.push(Token {
+                tok: Tok::Num(num),
+                start,
+                raw: raw(start, end),
+            });
             i = end;
             continue;
         }
@@ -154,8 +171,7 @@ pub(crate) fn lex(text: &str, field: Field) -> Result<Vec<Token>, Error> {
             while let Some(d) = ch(j) {
                 if d.is_ascii_alphabetic() {
                     word.push(d.to_ascii_lowercase());
-                } else if d == '.'
-                    && (dotted || ch(j + 1).is_some_and(|e| e.is_ascii_alphabetic()))
+                } else if d == '.' && (dotted || ch(j + 1).is_some_and(|e| e.is_ascii_alphabetic()))
                 {
                     dotted = true;
                 } else {
@@ -163,7 +179,11 @@ pub(crate) fn lex(text: &str, field: Field) -> Result<Vec<Token>, Error> {
                 }
                 j += 1;
             }
-            out.push(Token { tok: Tok::Word(word), start, raw: raw(start, j) });
+            out.push(Token {
+                tok: Tok::Word(word),
+                start,
+                raw: raw(start, j),
+            });
             i = j;
             continue;
         }
@@ -175,7 +195,11 @@ pub(crate) fn lex(text: &str, field: Field) -> Result<Vec<Token>, Error> {
             '"' => Tok::Inches,
             other => Tok::Other(other),
         };
-        out.push(Token { tok, start, raw: raw(start, i + 1) });
+        out.push(Token {
+            tok,
+            start,
+            raw: raw(start, i + 1),
+        });
         i += 1;
     }
     Ok(out)
@@ -218,7 +242,9 @@ fn number(
                     end += 1;
                 }
                 return Err(Error::new(
-                    ErrorKind::Ambiguous { text: raw(token_start, end) },
+                    ErrorKind::Ambiguous {
+                        text: raw(token_start, end),
+                    },
                     field,
                     Some(token_start),
                 ));
@@ -229,5 +255,14 @@ fn number(
             frac = Some(String::new());
         }
     }
-    Ok((Num { sign, int, frac, typographic_minus, comma }, j))
+    Ok((
+        Num {
+            sign,
+            int,
+            frac,
+            typographic_minus,
+            comma,
+        },
+        j,
+    ))
 }

@@ -163,11 +163,11 @@ pub use equivalent::{
 pub use error::{Error, Field};
 pub use format::{fmt_dioptres, fmt_number, fmt_power, fmt_sphere};
 pub use meridians::{Meridian, PowerCross};
-pub use parse::{
-    parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance,
-    parse_rx, parse_sphere_field, parse_vertex_mm, LengthUnit, Notice, NoticeKind, Parsed,
-};
 pub use near::{near_figures, NearFigures, NearGeometry};
+pub use parse::{
+    parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance, parse_rx,
+    parse_sphere_field, parse_vertex_mm, Notice, NoticeKind, Parsed,
+};
 pub use report_equivalent::{equivalent_report, EquivalentInput, EquivalentReport};
 pub use report_near::{near_report, AmplitudeReport, NearInput, NearReport};
 pub use report_vertex::{vertex_report, LadderKind, VertexInput, VertexReport};

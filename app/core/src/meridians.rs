@@ -33,7 +33,10 @@ struct RawCross {
 
 impl From<PowerCross> for RawCross {
     fn from(c: PowerCross) -> RawCross {
-        RawCross { first: c.first, second: c.second }
+        RawCross {
+            first: c.first,
+            second: c.second,
+        }
     }
 }
 
@@ -70,14 +73,23 @@ impl PowerCross {
         check_axis(axis)?;
         Ok(PowerCross::raw(
             Meridian { power: along, axis },
-            Meridian { power: across, axis: perpendicular(axis) },
+            Meridian {
+                power: across,
+                axis: perpendicular(axis),
+            },
         ))
     }
 
     pub(crate) fn raw(first: Meridian, second: Meridian) -> PowerCross {
         PowerCross {
-            first: Meridian { power: clean(first.power), axis: first.axis },
-            second: Meridian { power: clean(second.power), axis: second.axis },
+            first: Meridian {
+                power: clean(first.power),
+                axis: first.axis,
+            },
+            second: Meridian {
+                power: clean(second.power),
+                axis: second.axis,
+            },
         }
     }
 
@@ -124,14 +136,24 @@ impl PowerCross {
     /// # Ok::<(), lensplane_core::Error>(())
     /// ```
     pub fn to_rx(&self) -> Rx {
-        Rx::raw(self.first.power, self.second.power - self.first.power, self.first.axis)
+        Rx::raw(
+            self.first.power,
+            self.second.power - self.first.power,
+            self.first.axis,
+        )
     }
 
     /// Apply `f` to each meridian's power, keeping directions.
     pub(crate) fn map_powers(&self, mut f: impl FnMut(f64) -> f64) -> PowerCross {
         PowerCross::raw(
-            Meridian { power: f(self.first.power), axis: self.first.axis },
-            Meridian { power: f(self.second.power), axis: self.second.axis },
+            Meridian {
+                power: f(self.first.power),
+                axis: self.first.axis,
+            },
+            Meridian {
+                power: f(self.second.power),
+                axis: self.second.axis,
+            },
         )
     }
 
@@ -141,8 +163,14 @@ impl PowerCross {
         mut f: impl FnMut(f64) -> Result<f64, Error>,
     ) -> Result<PowerCross, Error> {
         Ok(PowerCross::raw(
-            Meridian { power: f(self.first.power)?, axis: self.first.axis },
-            Meridian { power: f(self.second.power)?, axis: self.second.axis },
+            Meridian {
+                power: f(self.first.power)?,
+                axis: self.first.axis,
+            },
+            Meridian {
+                power: f(self.second.power)?,
+                axis: self.second.axis,
+            },
         ))
     }
 }

@@ -62,14 +62,24 @@ pub enum NoticeKind {
 }
 
 fn notice(kind: NoticeKind, field: Field, message: String) -> Notice {
-    Notice { kind, field, message }
+    Notice {
+        kind,
+        field,
+        message,
+    }
 }
 
 fn unexpected(t: &Token, field: Field) -> Error {
-    Error::new(ErrorKind::Unexpected { text: t.raw.clone() }, field, Some(t.start))
+    Error::new(
+        ErrorKind::Unexpected {
+            text: t.raw.clone(),
+        },
+        field,
+        Some(t.start),
+    )
 }
 
-fn word<'a>(t: Option<&'a Token>) -> Option<&'a str> {
+fn word(t: Option<&Token>) -> Option<&str> {
     match t.map(|t| &t.tok) {
         Some(Tok::Word(w)) => Some(w.as_str()),
         _ => None,
@@ -170,13 +180,21 @@ fn power(t: &Token, num: &Num, role: Role) -> Result<(f64, Vec<Notice>), Error> 
     if m > limit {
         let suggestions = signed_suggestions(num.sign, &restored(num, plausible));
         return Err(Error::new(
-            ErrorKind::OutOfRange { typed: num.typed(), limit: limit_text, suggestions },
+            ErrorKind::OutOfRange {
+                typed: num.typed(),
+                limit: limit_text,
+                suggestions,
+            },
             field,
             Some(t.start),
         ));
     }
     if m != 0.0 && matches!(num.sign, Sign::None | Sign::PlusMinus) {
-        return Err(Error::new(ErrorKind::NeedsSign { magnitude: m }, field, Some(t.start)));
+        return Err(Error::new(
+            ErrorKind::NeedsSign { magnitude: m },
+            field,
+            Some(t.start),
+        ));
     }
     let value = num.value() + 0.0;
     let mut notices = reading_notices(num, field, value);
@@ -208,7 +226,11 @@ fn noun(field: Field) -> &'static str {
 fn axis(t: &Token, num: &Num) -> Result<(u16, Vec<Notice>), Error> {
     let out_of_range = |typed: String| {
         Error::new(
-            ErrorKind::OutOfRange { typed, limit: "1–180", suggestions: vec![] },
+            ErrorKind::OutOfRange {
+                typed,
+                limit: "1–180",
+                suggestions: vec![],
+            },
             Field::Axis,
             Some(t.start),
         )
@@ -287,7 +309,11 @@ pub fn parse_rx(text: &str) -> Result<Parsed<Rx>, Error> {
         }
         Tok::Word(w) if is_plano(w) => 0.0,
         Tok::At => {
-            return Err(Error::new(ErrorKind::AxisNeedsCylinder, Field::Axis, Some(sphere_tok.start)))
+            return Err(Error::new(
+                ErrorKind::AxisNeedsCylinder,
+                Field::Axis,
+                Some(sphere_tok.start),
+            ))
         }
         _ => return Err(unexpected(sphere_tok, Field::Sphere)),
     };
@@ -296,7 +322,10 @@ pub fn parse_rx(text: &str) -> Result<Parsed<Rx>, Error> {
     if let Some(w) = word(toks.get(i)) {
         if is_spherical_mark(w) {
             return match toks.get(i + 1) {
-                None => Ok(Parsed { value: Rx::new(sphere, 0.0, 180)?, notices }),
+                None => Ok(Parsed {
+                    value: Rx::new(sphere, 0.0, 180)?,
+                    notices,
+                }),
                 Some(t) => Err(unexpected(t, Field::Rx)),
             };
         }
@@ -313,10 +342,17 @@ pub fn parse_rx(text: &str) -> Result<Parsed<Rx>, Error> {
         i += 1;
     }
     let Some(cyl_tok) = toks.get(i) else {
-        return Ok(Parsed { value: Rx::new(sphere, 0.0, 180)?, notices });
+        return Ok(Parsed {
+            value: Rx::new(sphere, 0.0, 180)?,
+            notices,
+        });
     };
     if is_axis_mark(Some(cyl_tok)) {
-        return Err(Error::new(ErrorKind::AxisNeedsCylinder, Field::Axis, Some(cyl_tok.start)));
+        return Err(Error::new(
+            ErrorKind::AxisNeedsCylinder,
+            Field::Axis,
+            Some(cyl_tok.start),
+        ));
     }
     let cylinder = match &cyl_tok.tok {
         Tok::Num(n) => {
@@ -338,7 +374,11 @@ pub fn parse_rx(text: &str) -> Result<Parsed<Rx>, Error> {
         if is_axis_mark(Some(t)) {
             i += 1;
             match toks.get(i) {
-                Some(at @ Token { tok: Tok::Num(n), .. }) => {
+                Some(
+                    at @ Token {
+                        tok: Tok::Num(n), ..
+                    },
+                ) => {
                     let (a, mut n) = axis(at, n)?;
                     notices.append(&mut n);
                     axis_value = Some(a);
@@ -346,7 +386,11 @@ pub fn parse_rx(text: &str) -> Result<Parsed<Rx>, Error> {
                 }
                 Some(other) => return Err(unexpected(other, Field::Axis)),
                 None => {
-                    return Err(Error::new(ErrorKind::CylinderNeedsAxis, Field::Axis, Some(t.start)))
+                    return Err(Error::new(
+                        ErrorKind::CylinderNeedsAxis,
+                        Field::Axis,
+                        Some(t.start),
+                    ))
                 }
             }
         } else if let Tok::Num(n) = &t.tok {
@@ -395,11 +439,24 @@ fn finish(
                 Field::Axis,
                 format!("axis {a} ignored: the cylinder is zero"),
             ));
-            Ok(Parsed { value: Rx::new(sphere, 0.0, 180)?, notices })
+            Ok(Parsed {
+                value: Rx::new(sphere, 0.0, 180)?,
+                notices,
+            })
         }
-        (true, None) => Ok(Parsed { value: Rx::new(sphere, 0.0, 180)?, notices }),
-        (false, None) => Err(Error::new(ErrorKind::CylinderNeedsAxis, Field::Axis, cyl_position)),
-        (false, Some(a)) => Ok(Parsed { value: Rx::new(sphere, cylinder, a)?, notices }),
+        (true, None) => Ok(Parsed {
+            value: Rx::new(sphere, 0.0, 180)?,
+            notices,
+        }),
+        (false, None) => Err(Error::new(
+            ErrorKind::CylinderNeedsAxis,
+            Field::Axis,
+            cyl_position,
+        )),
+        (false, Some(a)) => Ok(Parsed {
+            value: Rx::new(sphere, cylinder, a)?,
+            notices,
+        }),
     }
 }
 
@@ -456,7 +513,10 @@ pub fn parse_cylinder_field(text: &str) -> Result<Parsed<f64>, Error> {
         i = 1;
     }
     let Some(t) = toks.get(i) else {
-        return Ok(Parsed { value: 0.0, notices: vec![] });
+        return Ok(Parsed {
+            value: 0.0,
+            notices: vec![],
+        });
     };
     let (value, notices) = match &t.tok {
         Tok::Num(n) => power(t, n, Role::Cylinder)?,
@@ -495,7 +555,10 @@ pub fn parse_axis_field(text: &str) -> Result<Parsed<Option<u16>>, Error> {
     let Some(t) = toks.get(i) else {
         return match toks.first() {
             Some(_) => Err(Error::new(ErrorKind::Empty, Field::Axis, None)),
-            None => Ok(Parsed { value: None, notices: vec![] }),
+            None => Ok(Parsed {
+                value: None,
+                notices: vec![],
+            }),
         };
     };
     let (value, notices) = match &t.tok {
@@ -508,7 +571,10 @@ pub fn parse_axis_field(text: &str) -> Result<Parsed<Option<u16>>, Error> {
     }
     match toks.get(i) {
         Some(t) => Err(unexpected(t, Field::Axis)),
-        None => Ok(Parsed { value: Some(value), notices }),
+        None => Ok(Parsed {
+            value: Some(value),
+            notices,
+        }),
     }
 }
 
@@ -535,10 +601,9 @@ impl Rx {
     }
 }
 
-fn single_number<'a>(
-    toks: &'a [Token],
-    field: Field,
-) -> Result<(&'a Token, &'a Num, Option<&'a Token>), Error> {
+type NumberAndUnit<'a> = (&'a Token, &'a Num, Option<&'a Token>);
+
+fn single_number(toks: &[Token], field: Field) -> Result<NumberAndUnit<'_>, Error> {
     let Some(t) = toks.first() else {
         return Err(Error::new(ErrorKind::Empty, field, None));
     };
@@ -578,7 +643,11 @@ pub fn parse_vertex_mm(text: &str) -> Result<Parsed<VertexDistance>, Error> {
     let (t, n, unit) = single_number(&toks, field)?;
     if n.sign == Sign::Minus {
         return Err(Error::new(
-            ErrorKind::OutOfRange { typed: format!("{} mm", n.typed()), limit: "0–30 mm", suggestions: vec![] },
+            ErrorKind::OutOfRange {
+                typed: format!("{} mm", n.typed()),
+                limit: "0–30 mm",
+                suggestions: vec![],
+            },
             field,
             Some(t.start),
         ));
@@ -592,36 +661,39 @@ pub fn parse_vertex_mm(text: &str) -> Result<Parsed<VertexDistance>, Error> {
         None if unit.is_some() => return Err(unexpected(unit.unwrap_or(t), field)),
         None | Some("mm") => m,
         Some("cm") => {
-            notices.push(notice(NoticeKind::UnitConverted, field, format!("{} cm read as {} mm", trim(m), trim(m * 10.0))));
+            notices.push(notice(
+                NoticeKind::UnitConverted,
+                field,
+                format!("{} cm read as {} mm", trim(m), trim(m * 10.0)),
+            ));
             m * 10.0
         }
         Some("m") => {
-            notices.push(notice(NoticeKind::UnitConverted, field, format!("{} m read as {} mm", trim(m), trim(m * 1000.0))));
+            notices.push(notice(
+                NoticeKind::UnitConverted,
+                field,
+                format!("{} m read as {} mm", trim(m), trim(m * 1000.0)),
+            ));
             m * 1000.0
         }
         Some(_) => return Err(unexpected(unit.unwrap_or(t), field)),
     };
     if mm > 0.0 && mm < VERTEX_SHORT_MM {
         let candidate = if mm < 0.1 { mm * 1000.0 } else { mm * 10.0 };
-        let suggestion = (VERTEX_SHORT_MM..=VERTEX_MAX_MM).contains(&candidate).then(|| trim(candidate));
+        let suggestion = (VERTEX_SHORT_MM..=VERTEX_MAX_MM)
+            .contains(&candidate)
+            .then(|| trim(candidate));
         return Err(Error::new(
-            ErrorKind::VertexTooShort { typed: n.typed(), suggestion },
+            ErrorKind::VertexTooShort {
+                typed: n.typed(),
+                suggestion,
+            },
             field,
             Some(t.start),
         ));
     }
     let value = VertexDistance::from_mm(mm).map_err(|e| e.at(t.start))?;
     Ok(Parsed { value, notices })
-}
-
-/// The unit a reading distance was typed in.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Default, Serialize, Deserialize)]
-pub enum LengthUnit {
-    /// Centimetres (default).
-    #[default]
-    Cm,
-    /// Inches.
-    Inches,
 }
 
 /// Parse a reading distance: `40 cm`, `40cm`, `16 in`, `16"`, `0.4 m`,
@@ -647,26 +719,33 @@ pub fn parse_reading_distance(text: &str) -> Result<Parsed<ReadingDistance>, Err
     }
     let m = n.magnitude();
     let mut notices = vec![];
-    let (cm, _unit) = match (unit.map(|u| &u.tok), word(unit)) {
+    let cm = match (unit.map(|u| &u.tok), word(unit)) {
         (None, _) => {
             if (20.0..=READING_CM.1).contains(&m) {
-                notices.push(notice(NoticeKind::UnitAssumed, field, format!("{} read as cm", trim(m))));
-                (m, LengthUnit::Cm)
+                notices.push(notice(
+                    NoticeKind::UnitAssumed,
+                    field,
+                    format!("{} read as cm", trim(m)),
+                ));
+                m
             } else if m <= READING_CM.1 {
                 let suggestion = (m > 0.0 && m <= 1.0).then(|| format!("{} cm", trim(m * 100.0)));
                 return Err(Error::new(
-                    ErrorKind::NeedsUnit { typed: n.typed(), suggestion },
+                    ErrorKind::NeedsUnit {
+                        typed: n.typed(),
+                        suggestion,
+                    },
                     field,
                     Some(t.start),
                 ));
             } else {
-                (m, LengthUnit::Cm)
+                m
             }
         }
-        (Some(Tok::Inches), _) | (_, Some("in" | "inch" | "inches")) => (m * CM_PER_INCH, LengthUnit::Inches),
-        (_, Some("cm")) => (m, LengthUnit::Cm),
-        (_, Some("m")) => (m * 100.0, LengthUnit::Cm),
-        (_, Some("mm")) => (m / 10.0, LengthUnit::Cm),
+        (Some(Tok::Inches), _) | (_, Some("in" | "inch" | "inches")) => m * CM_PER_INCH,
+        (_, Some("cm")) => m,
+        (_, Some("m")) => m * 100.0,
+        (_, Some("mm")) => m / 10.0,
         _ => return Err(unexpected(unit.unwrap_or(t), field)),
     };
     let value = ReadingDistance::from_cm(cm).map_err(|e| e.at(t.start))?;
@@ -688,7 +767,11 @@ pub fn parse_reading_distance(text: &str) -> Result<Parsed<ReadingDistance>, Err
 pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
     let field = Field::Add;
     let all = lex(text, field)?;
-    let toks = if word(all.first()) == Some("add") { &all[1..] } else { &all[..] };
+    let toks = if word(all.first()) == Some("add") {
+        &all[1..]
+    } else {
+        &all[..]
+    };
     let (t, n, unit) = single_number(toks, field)?;
     if let Some(u) = unit {
         if word(Some(u)) != Some("d") {
@@ -702,22 +785,37 @@ pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
     }
     let m = n.magnitude();
     if m > ADD_MAX {
-        let suggestions = restored(n, ADD_MAX).into_iter().map(|c| crate::format::prose_power(c)).collect();
+        let suggestions = restored(n, ADD_MAX)
+            .into_iter()
+            .map(crate::format::prose_power)
+            .collect();
         return Err(Error::new(
-            ErrorKind::OutOfRange { typed: n.typed(), limit: "0.00 to +4.00", suggestions },
+            ErrorKind::OutOfRange {
+                typed: n.typed(),
+                limit: "0.00 to +4.00",
+                suggestions,
+            },
             field,
             Some(t.start),
         ));
     }
     let mut notices = vec![];
     if n.comma {
-        notices.push(notice(NoticeKind::CommaDecimal, field, format!("read the comma as a decimal point: {}", fmt_power(m))));
+        notices.push(notice(
+            NoticeKind::CommaDecimal,
+            field,
+            format!("read the comma as a decimal point: {}", fmt_power(m)),
+        ));
     }
     if !is_on_step(m, 0.25) {
         notices.push(notice(
             NoticeKind::OffStep,
             field,
-            format!("add {} is between quarter steps; nearest {}", fmt_power(m), fmt_power(round_to_step(m, 0.25, TieRule::default()))),
+            format!(
+                "add {} is between quarter steps; nearest {}",
+                fmt_power(m),
+                fmt_power(round_to_step(m, 0.25, TieRule::default()))
+            ),
         ));
     }
     let value = Add::new(m).map_err(|e| e.at(t.start))?;
@@ -737,16 +835,27 @@ pub fn parse_age(text: &str) -> Result<Parsed<Age>, Error> {
     let toks = lex(text, field)?;
     let (t, n, unit) = single_number(&toks, field)?;
     if let Some(u) = unit {
-        if !matches!(word(Some(u)), Some("y" | "yr" | "yrs" | "year" | "years" | "yo")) {
+        if !matches!(
+            word(Some(u)),
+            Some("y" | "yr" | "yrs" | "year" | "years" | "yo")
+        ) {
             return Err(unexpected(u, field));
         }
     }
     if n.frac.is_some() {
-        return Err(Error::new(ErrorKind::AgeNotWhole { typed: n.typed() }, field, Some(t.start)));
+        return Err(Error::new(
+            ErrorKind::AgeNotWhole { typed: n.typed() },
+            field,
+            Some(t.start),
+        ));
     }
     if n.sign == Sign::Minus || n.sign == Sign::PlusMinus || n.int.len() > 3 {
         return Err(Error::new(
-            ErrorKind::OutOfRange { typed: n.typed(), limit: "1–110", suggestions: vec![] },
+            ErrorKind::OutOfRange {
+                typed: n.typed(),
+                limit: "1–110",
+                suggestions: vec![],
+            },
             field,
             Some(t.start),
         ));
@@ -754,11 +863,18 @@ pub fn parse_age(text: &str) -> Result<Parsed<Age>, Error> {
     let years: u16 = n.int.parse().unwrap_or(u16::MAX);
     let Ok(years) = u8::try_from(years) else {
         return Err(Error::new(
-            ErrorKind::OutOfRange { typed: n.int.clone(), limit: "1–110", suggestions: vec![] },
+            ErrorKind::OutOfRange {
+                typed: n.int.clone(),
+                limit: "1–110",
+                suggestions: vec![],
+            },
             field,
             Some(t.start),
         ));
     };
     let value = Age::new(years).map_err(|e| e.at(t.start))?;
-    Ok(Parsed { value, notices: vec![] })
+    Ok(Parsed {
+        value,
+        notices: vec![],
+    })
 }

@@ -2,8 +2,8 @@
 
 use serde::{Deserialize, Serialize};
 
-use crate::error::Error;
 use crate::equivalent::{assess_substitute, SubstituteAssessment, SubstituteSettings};
+use crate::error::Error;
 use crate::report_vertex::LadderKind;
 use crate::rounding::OrderSettings;
 use crate::warnings::{rx_warnings, vertex_warnings, Warning};
@@ -72,7 +72,13 @@ pub struct EquivalentReport {
 /// # Ok::<(), Error>(())
 /// ```
 pub fn equivalent_report(input: &EquivalentInput) -> Result<EquivalentReport, Error> {
-    let EquivalentInput { rx, from, to, settings, substitute } = input;
+    let EquivalentInput {
+        rx,
+        from,
+        to,
+        settings,
+        substitute,
+    } = input;
     settings.validate()?;
     substitute.validate()?;
     let at_target = compensate(rx, *from, *to)?;
@@ -88,7 +94,11 @@ pub fn equivalent_report(input: &EquivalentInput) -> Result<EquivalentReport, Er
         spherical_equivalent_at_origin: rx.spherical_equivalent(),
         at_target,
         spherical_equivalent: se,
-        ladder: if to.is_cornea() { LadderKind::ContactLens } else { LadderKind::Spectacle },
+        ladder: if to.is_cornea() {
+            LadderKind::ContactLens
+        } else {
+            LadderKind::Spectacle
+        },
         ordered_sphere,
         ordered,
         ordered_back_at_origin: compensate_power(ordered_sphere, *to, *from)?,

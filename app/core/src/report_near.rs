@@ -8,7 +8,9 @@ use crate::format::{fmt_number, fmt_power};
 use crate::near::{near_figures, NearFigures, NearGeometry};
 use crate::rounding::{is_on_step, round_meridians, round_to_step, OrderSettings};
 use crate::warnings::{rx_warnings, vertex_warnings, warn, Warning, WarningKind};
-use crate::{compensate, Add, Age, Measured, Meridian, PowerCross, ReadingDistance, Rx, VertexDistance};
+use crate::{
+    compensate, Add, Age, Measured, Meridian, PowerCross, ReadingDistance, Rx, VertexDistance,
+};
 
 /// What the near panel sends for one eye.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -119,10 +121,24 @@ fn kind_of_eye(se: f64) -> &'static str {
 /// # Ok::<(), Error>(())
 /// ```
 pub fn near_report(input: &NearInput) -> Result<NearReport, Error> {
-    let NearInput { rx, add, spectacle_vertex, reading, measured, target, age, settings } = input;
+    let NearInput {
+        rx,
+        add,
+        spectacle_vertex,
+        reading,
+        measured,
+        target,
+        age,
+        settings,
+    } = input;
     settings.validate()?;
     let tie = settings.tie;
-    let g = NearGeometry { spectacle_vertex: *spectacle_vertex, target: *target, reading: *reading, measured: *measured };
+    let g = NearGeometry {
+        spectacle_vertex: *spectacle_vertex,
+        target: *target,
+        reading: *reading,
+        measured: *measured,
+    };
     let a = add.dioptres();
     // Spherical-equivalent summary first: its rounded add is the one ordered.
     let se = rx.spherical_equivalent();
@@ -137,8 +153,14 @@ pub fn near_report(input: &NearInput) -> Result<NearReport, Error> {
         per.push(f);
     }
     let near_cross = PowerCross::raw(
-        Meridian { power: per[0].near_power_at_target, axis: cross.first().axis },
-        Meridian { power: per[1].near_power_at_target, axis: cross.second().axis },
+        Meridian {
+            power: per[0].near_power_at_target,
+            axis: cross.first().axis,
+        },
+        Meridian {
+            power: per[1].near_power_at_target,
+            axis: cross.second().axis,
+        },
     );
     if rx.is_spherical() {
         per.truncate(1);
@@ -155,7 +177,11 @@ pub fn near_report(input: &NearInput) -> Result<NearReport, Error> {
         warnings.push(warn(
             WarningKind::OffStep,
             Field::Add,
-            format!("add {} is between quarter steps; nearest {}", fmt_power(a), fmt_power(round_to_step(a, 0.25, tie))),
+            format!(
+                "add {} is between quarter steps; nearest {}",
+                fmt_power(a),
+                fmt_power(round_to_step(a, 0.25, tie))
+            ),
         ));
     }
     if target.is_cornea() {
@@ -191,7 +217,10 @@ pub fn near_report(input: &NearInput) -> Result<NearReport, Error> {
             warnings.push(warn(
                 WarningKind::AmplitudeUnreliable,
                 Field::Age,
-                format!("at age {} the age formulas are least reliable", amp.age.years()),
+                format!(
+                    "at age {} the age formulas are least reliable",
+                    amp.age.years()
+                ),
             ));
         }
         let low = tentative_add(reading.demand(), amp.amplitude.maximum, tie).half_reserve;
@@ -235,7 +264,12 @@ fn near_summary(se: f64, add: f64, target: VertexDistance, f: &NearFigures) -> S
     let wearing = if target.is_cornea() {
         "in contact lenses".to_string()
     } else {
-        format!("with the lens at {} mm", fmt_number(target.mm()).trim_end_matches('0').trim_end_matches('.'))
+        format!(
+            "with the lens at {} mm",
+            fmt_number(target.mm())
+                .trim_end_matches('0')
+                .trim_end_matches('.')
+        )
     };
     let diff = f.accommodation_target - f.accommodation_spectacles;
     let more = if diff.abs() < 0.005 {

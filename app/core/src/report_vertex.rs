@@ -102,14 +102,25 @@ pub(crate) fn vertex_reason(rx: &Rx, shift_m: f64) -> String {
 /// # Ok::<(), Error>(())
 /// ```
 pub fn vertex_report(input: &VertexInput) -> Result<VertexReport, Error> {
-    let VertexInput { rx, from, to, settings } = input;
+    let VertexInput {
+        rx,
+        from,
+        to,
+        settings,
+    } = input;
     settings.validate()?;
     let before = rx.meridians();
     let after = compensate_meridians(&before, *from, *to)?;
     let exact = after.to_rx();
     let change = PowerCross::raw(
-        crate::Meridian { power: after.first().power - before.first().power, axis: before.first().axis },
-        crate::Meridian { power: after.second().power - before.second().power, axis: before.second().axis },
+        crate::Meridian {
+            power: after.first().power - before.first().power,
+            axis: before.first().axis,
+        },
+        crate::Meridian {
+            power: after.second().power - before.second().power,
+            axis: before.second().axis,
+        },
     );
     let ladder = settings.ladder_for(*to);
     let ordered = order_lens(rx, *from, *to, &ladder, settings.tie)?;
@@ -136,7 +147,12 @@ pub fn vertex_report(input: &VertexInput) -> Result<VertexReport, Error> {
         }
         let cyl = round_to_step(exact.cylinder().abs(), 0.25, crate::TieRule::TowardZero);
         if cyl >= settings.toric.smallest() - 1e-9 {
-            toric = choose_toric(&exact, &settings.toric, &settings.contact_lens, settings.tie)?;
+            toric = choose_toric(
+                &exact,
+                &settings.toric,
+                &settings.contact_lens,
+                settings.tie,
+            )?;
             if let Some(t) = &toric {
                 if !t.within_range {
                     warnings.push(warn(
@@ -162,7 +178,11 @@ pub fn vertex_report(input: &VertexInput) -> Result<VertexReport, Error> {
         meridians_before: before,
         meridians_after: after,
         change,
-        ladder: if to.is_cornea() { LadderKind::ContactLens } else { LadderKind::Spectacle },
+        ladder: if to.is_cornea() {
+            LadderKind::ContactLens
+        } else {
+            LadderKind::Spectacle
+        },
         ordered_minus_cyl: ordered.ordered.to_minus_cyl(),
         ordered_plus_cyl: ordered.ordered.to_plus_cyl(),
         ordered,

@@ -4,7 +4,9 @@
 use serde::{Deserialize, Serialize};
 
 use crate::error::{Error, ErrorKind, Field};
-use crate::{compensate_meridians, Meridian, PowerCross, PowerVector, Rx, ToricSettings, VertexDistance};
+use crate::{
+    compensate_meridians, Meridian, PowerCross, PowerVector, Rx, ToricSettings, VertexDistance,
+};
 
 /// How to round a value that lies exactly halfway between two steps.
 /// Language defaults (banker's rounding, half away from zero) would decide
@@ -54,8 +56,20 @@ pub fn round_to_step(x: f64, step: f64, tie: TieRule) -> f64 {
         match tie {
             TieRule::TowardPlus => hi,
             TieRule::TowardMinus => lo,
-            TieRule::AwayFromZero => if hi.abs() >= lo.abs() { hi } else { lo },
-            TieRule::TowardZero => if hi.abs() <= lo.abs() { hi } else { lo },
+            TieRule::AwayFromZero => {
+                if hi.abs() >= lo.abs() {
+                    hi
+                } else {
+                    lo
+                }
+            }
+            TieRule::TowardZero => {
+                if hi.abs() <= lo.abs() {
+                    hi
+                } else {
+                    lo
+                }
+            }
         }
     } else {
         q.round()
@@ -82,9 +96,17 @@ pub struct Ladder {
 
 impl Ladder {
     /// Spectacle lenses: 0.25 D steps at every power.
-    pub const SPECTACLE: Ladder = Ladder { fine_step: 0.25, fine_limit: 6.0, coarse_step: 0.25 };
+    pub const SPECTACLE: Ladder = Ladder {
+        fine_step: 0.25,
+        fine_limit: 6.0,
+        coarse_step: 0.25,
+    };
     /// Soft contact lenses: 0.25 D to ±6.00, then 0.50 D.
-    pub const CONTACT_LENS: Ladder = Ladder { fine_step: 0.25, fine_limit: 6.0, coarse_step: 0.5 };
+    pub const CONTACT_LENS: Ladder = Ladder {
+        fine_step: 0.25,
+        fine_limit: 6.0,
+        coarse_step: 0.5,
+    };
 
     /// Check a (user-edited) ladder: steps positive and at most 1 D, the
     /// fine limit a whole number of fine steps within 0–30 D.
@@ -104,7 +126,9 @@ impl Ladder {
             || !(0.0..=30.0).contains(&self.fine_limit)
             || !is_on_step(self.fine_limit, self.fine_step)
         {
-            return Err(bad_setting("the fine-step limit must be a whole number of fine steps, 0–30 D"));
+            return Err(bad_setting(
+                "the fine-step limit must be a whole number of fine steps, 0–30 D",
+            ));
         }
         Ok(())
     }
@@ -154,8 +178,20 @@ impl Ladder {
             match tie {
                 TieRule::TowardPlus => hi,
                 TieRule::TowardMinus => lo,
-                TieRule::AwayFromZero => if hi.abs() >= lo.abs() { hi } else { lo },
-                TieRule::TowardZero => if hi.abs() <= lo.abs() { hi } else { lo },
+                TieRule::AwayFromZero => {
+                    if hi.abs() >= lo.abs() {
+                        hi
+                    } else {
+                        lo
+                    }
+                }
+                TieRule::TowardZero => {
+                    if hi.abs() <= lo.abs() {
+                        hi
+                    } else {
+                        lo
+                    }
+                }
             }
         } else if d_lo < d_hi {
             lo
@@ -182,7 +218,10 @@ pub struct StockRange {
 
 impl Default for StockRange {
     fn default() -> StockRange {
-        StockRange { min: -12.0, max: 8.0 }
+        StockRange {
+            min: -12.0,
+            max: 8.0,
+        }
     }
 }
 
@@ -271,7 +310,11 @@ pub fn round_meridians(cross: &PowerCross, ladder: &Ladder, tie: TieRule) -> Pow
 /// ```
 pub fn round_separately(rx: &Rx, ladder: &Ladder, tie: TieRule) -> Rx {
     let m = rx.to_minus_cyl();
-    Rx::raw(ladder.round(m.sphere(), tie), round_to_step(m.cylinder(), 0.25, tie), m.axis())
+    Rx::raw(
+        ladder.round(m.sphere(), tie),
+        round_to_step(m.cylinder(), 0.25, tie),
+        m.axis(),
+    )
 }
 
 /// A rounded (orderable) lens and what it is worth.
@@ -318,8 +361,14 @@ pub fn order_lens(
     let ordered = round_meridians(&exact, ladder, tie);
     let back = compensate_meridians(&ordered, to, from)?;
     let residual = PowerCross::raw(
-        Meridian { power: back.first().power - original.first().power, axis: original.first().axis },
-        Meridian { power: back.second().power - original.second().power, axis: original.second().axis },
+        Meridian {
+            power: back.first().power - original.first().power,
+            axis: original.first().axis,
+        },
+        Meridian {
+            power: back.second().power - original.second().power,
+            axis: original.second().axis,
+        },
     );
     let back_rx = back.to_rx();
     Ok(OrderedLens {

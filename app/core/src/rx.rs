@@ -41,7 +41,11 @@ struct RawRx {
 
 impl From<Rx> for RawRx {
     fn from(rx: Rx) -> RawRx {
-        RawRx { sphere: rx.sphere, cylinder: rx.cylinder, axis: rx.axis }
+        RawRx {
+            sphere: rx.sphere,
+            cylinder: rx.cylinder,
+            axis: rx.axis,
+        }
     }
 }
 
@@ -64,8 +68,20 @@ fn out_of_range(field: Field, value: f64) -> Error {
         Field::Sphere => "±30 D",
         _ => "±10 D",
     };
-    let typed = if value.is_finite() { prose_power(value) } else { "(not a number)".into() };
-    Error::new(ErrorKind::OutOfRange { typed, limit, suggestions: vec![] }, field, None)
+    let typed = if value.is_finite() {
+        prose_power(value)
+    } else {
+        "(not a number)".into()
+    };
+    Error::new(
+        ErrorKind::OutOfRange {
+            typed,
+            limit,
+            suggestions: vec![],
+        },
+        field,
+        None,
+    )
 }
 
 pub(crate) fn check_axis(axis: u16) -> Result<(), Error> {
@@ -73,7 +89,11 @@ pub(crate) fn check_axis(axis: u16) -> Result<(), Error> {
         Ok(())
     } else {
         Err(Error::new(
-            ErrorKind::OutOfRange { typed: axis.to_string(), limit: "1–180", suggestions: vec![] },
+            ErrorKind::OutOfRange {
+                typed: axis.to_string(),
+                limit: "1–180",
+                suggestions: vec![],
+            },
             Field::Axis,
             None,
         ))
@@ -122,7 +142,11 @@ impl Rx {
     pub(crate) fn raw(sphere: f64, cylinder: f64, axis: u16) -> Rx {
         let cylinder = clean(cylinder);
         let axis = if cylinder == 0.0 { 180 } else { axis };
-        Rx { sphere: clean(sphere), cylinder, axis }
+        Rx {
+            sphere: clean(sphere),
+            cylinder,
+            axis,
+        }
     }
 
     /// Sphere in dioptres.
@@ -177,7 +201,11 @@ impl Rx {
         if self.is_spherical() {
             return *self;
         }
-        Rx::raw(self.sphere + self.cylinder, -self.cylinder, perpendicular(self.axis))
+        Rx::raw(
+            self.sphere + self.cylinder,
+            -self.cylinder,
+            perpendicular(self.axis),
+        )
     }
 
     /// Minus-cylinder form (unchanged when already minus or spherical).
@@ -231,8 +259,14 @@ impl Rx {
     /// ```
     pub fn meridians(&self) -> PowerCross {
         PowerCross::raw(
-            Meridian { power: self.sphere, axis: self.axis },
-            Meridian { power: self.sphere + self.cylinder, axis: perpendicular(self.axis) },
+            Meridian {
+                power: self.sphere,
+                axis: self.axis,
+            },
+            Meridian {
+                power: self.sphere + self.cylinder,
+                axis: perpendicular(self.axis),
+            },
         )
     }
 

@@ -9,7 +9,15 @@ use crate::format::{fmt_number, prose_power};
 use crate::limits::{ADD_MAX, AGE_YEARS, CM_PER_INCH, READING_CM, VERTEX_MAX_MM};
 
 fn range_error(field: Field, typed: String, limit: &'static str) -> Error {
-    Error::new(ErrorKind::OutOfRange { typed, limit, suggestions: vec![] }, field, None)
+    Error::new(
+        ErrorKind::OutOfRange {
+            typed,
+            limit,
+            suggestions: vec![],
+        },
+        field,
+        None,
+    )
 }
 
 fn trim_number(x: f64) -> String {
@@ -51,8 +59,16 @@ impl VertexDistance {
         if mm.is_finite() && (0.0..=VERTEX_MAX_MM).contains(&mm) {
             Ok(VertexDistance { mm: mm + 0.0 })
         } else {
-            let typed = if mm.is_finite() { trim_number(mm) } else { "(not a number)".into() };
-            Err(range_error(Field::VertexFrom, format!("{typed} mm"), "0–30 mm"))
+            let typed = if mm.is_finite() {
+                trim_number(mm)
+            } else {
+                "(not a number)".into()
+            };
+            Err(range_error(
+                Field::VertexFrom,
+                format!("{typed} mm"),
+                "0–30 mm",
+            ))
         }
     }
 
@@ -124,8 +140,16 @@ impl ReadingDistance {
         if cm.is_finite() && (READING_CM.0..=READING_CM.1).contains(&cm) {
             Ok(ReadingDistance { cm })
         } else {
-            let typed = if cm.is_finite() { trim_number(cm) } else { "(not a number)".into() };
-            Err(range_error(Field::ReadingDistance, format!("{typed} cm"), "10–100 cm"))
+            let typed = if cm.is_finite() {
+                trim_number(cm)
+            } else {
+                "(not a number)".into()
+            };
+            Err(range_error(
+                Field::ReadingDistance,
+                format!("{typed} cm"),
+                "10–100 cm",
+            ))
         }
     }
 
@@ -278,13 +302,21 @@ impl Add {
     /// ```
     pub fn new(dioptres: f64) -> Result<Add, Error> {
         if !dioptres.is_finite() {
-            return Err(range_error(Field::Add, "(not a number)".into(), "0.00 to +4.00"));
+            return Err(range_error(
+                Field::Add,
+                "(not a number)".into(),
+                "0.00 to +4.00",
+            ));
         }
         if dioptres < 0.0 {
             return Err(Error::new(ErrorKind::AddNotPlus, Field::Add, None));
         }
         if dioptres > ADD_MAX {
-            return Err(range_error(Field::Add, prose_power(dioptres), "0.00 to +4.00"));
+            return Err(range_error(
+                Field::Add,
+                prose_power(dioptres),
+                "0.00 to +4.00",
+            ));
         }
         Ok(Add(dioptres + 0.0))
     }
@@ -359,6 +391,9 @@ impl<T> EyePair<T> {
     /// assert_eq!(pair.map(|x| x + 1).left, Some(4));
     /// ```
     pub fn map<U>(self, mut f: impl FnMut(T) -> U) -> EyePair<U> {
-        EyePair { right: self.right.map(&mut f), left: self.left.map(&mut f) }
+        EyePair {
+            right: self.right.map(&mut f),
+            left: self.left.map(&mut f),
+        }
     }
 }

@@ -25,7 +25,11 @@ impl PowerVector {
     pub(crate) fn from_rx(rx: &Rx) -> PowerVector {
         let half = rx.cylinder() / 2.0;
         let (sin, cos) = sin_cos_degrees(2.0 * f64::from(rx.axis()));
-        PowerVector { m: rx.sphere() + half, j0: -half * cos + 0.0, j45: -half * sin + 0.0 }
+        PowerVector {
+            m: rx.sphere() + half,
+            j0: -half * cos + 0.0,
+            j45: -half * sin + 0.0,
+        }
     }
 
     /// Blur strength B = √(M² + J0² + J45²), dioptres.
@@ -58,7 +62,11 @@ impl PowerVector {
     /// # Ok::<(), lensplane_core::Error>(())
     /// ```
     pub fn minus(&self, other: &PowerVector) -> PowerVector {
-        PowerVector { m: self.m - other.m, j0: self.j0 - other.j0, j45: self.j45 - other.j45 }
+        PowerVector {
+            m: self.m - other.m,
+            j0: self.j0 - other.j0,
+            j45: self.j45 - other.j45,
+        }
     }
 }
 

@@ -5,7 +5,9 @@ use serde::{Deserialize, Serialize};
 
 use crate::error::Field;
 use crate::format::{fmt_number, fmt_power};
-use crate::limits::{CYLINDER_WARN, MEASURE_VERTEX_ABOVE, SPHERE_WARN, VERTEX_MAX_MM, VERTEX_USUAL_MM};
+use crate::limits::{
+    CYLINDER_WARN, MEASURE_VERTEX_ABOVE, SPHERE_WARN, VERTEX_MAX_MM, VERTEX_USUAL_MM,
+};
 use crate::rounding::{is_on_step, round_to_step, TieRule};
 use crate::{compensate_power, Rx, VertexDistance};
 
@@ -62,7 +64,11 @@ pub const CAUTIONS: [&str; 6] = [
 ];
 
 pub(crate) fn warn(kind: WarningKind, field: Field, message: String) -> Warning {
-    Warning { kind, field, message }
+    Warning {
+        kind,
+        field,
+        message,
+    }
 }
 
 /// Warnings about a prescription as entered: off-step, very high powers.
@@ -76,7 +82,10 @@ pub(crate) fn warn(kind: WarningKind, field: Field, message: String) -> Warning 
 /// ```
 pub fn rx_warnings(rx: &Rx) -> Vec<Warning> {
     let mut out = vec![];
-    for (value, field, noun) in [(rx.sphere(), Field::Sphere, "sphere"), (rx.cylinder(), Field::Cylinder, "cylinder")] {
+    for (value, field, noun) in [
+        (rx.sphere(), Field::Sphere, "sphere"),
+        (rx.cylinder(), Field::Cylinder, "cylinder"),
+    ] {
         if !is_on_step(value, 0.25) {
             out.push(warn(
                 WarningKind::OffStep,
@@ -94,14 +103,20 @@ pub fn rx_warnings(rx: &Rx) -> Vec<Warning> {
         out.push(warn(
             WarningKind::HighPower,
             Field::Sphere,
-            format!("a meridian of {} is beyond ±20 D: check the entry", fmt_power(strongest)),
+            format!(
+                "a meridian of {} is beyond ±20 D: check the entry",
+                fmt_power(strongest)
+            ),
         ));
     }
     if rx.cylinder().abs() > CYLINDER_WARN {
         out.push(warn(
             WarningKind::HighCylinder,
             Field::Cylinder,
-            format!("cylinder {} is above 6 D: check the entry", fmt_power(rx.cylinder())),
+            format!(
+                "cylinder {} is above 6 D: check the entry",
+                fmt_power(rx.cylinder())
+            ),
         ));
     }
     out
@@ -134,7 +149,10 @@ pub fn vertex_warnings(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Vec
             out.push(warn(
                 WarningKind::UnusualVertex,
                 field,
-                format!("vertex distance {} mm is unusual for spectacles (usually 8–20 mm): check it", trim(d.mm())),
+                format!(
+                    "vertex distance {} mm is unusual for spectacles (usually 8–20 mm): check it",
+                    trim(d.mm())
+                ),
             ));
         }
     }
@@ -145,25 +163,49 @@ pub fn vertex_warnings(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Vec
     if strongest.abs() > MEASURE_VERTEX_ABOVE {
         // What a 2 mm error in the spectacle vertex distance would change.
         let spectacle = if from.is_cornea() { to } else { from };
-        let shifted_mm = if spectacle.mm() + 2.0 <= VERTEX_MAX_MM { spectacle.mm() + 2.0 } else { spectacle.mm() - 2.0 };
+        let shifted_mm = if spectacle.mm() + 2.0 <= VERTEX_MAX_MM {
+            spectacle.mm() + 2.0
+        } else {
+            spectacle.mm() - 2.0
+        };
         let shifted = VertexDistance::from_mm(shifted_mm).unwrap_or(spectacle);
-        let (f2, t2) = if from.is_cornea() { (from, shifted) } else { (shifted, to) };
-        let sensitivity = match (compensate_power(strongest, from, to), compensate_power(strongest, f2, t2)) {
+        let (f2, t2) = if from.is_cornea() {
+            (from, shifted)
+        } else {
+            (shifted, to)
+        };
+        let sensitivity = match (
+            compensate_power(strongest, from, to),
+            compensate_power(strongest, f2, t2),
+        ) {
             (Ok(a), Ok(b)) => Some((a - b).abs()),
             _ => None,
         };
-        let tail = sensitivity.map_or(String::new(), |s| format!("; 2 mm changes this result by {} D", fmt_number(s)));
+        let tail = sensitivity.map_or(String::new(), |s| {
+            format!("; 2 mm changes this result by {} D", fmt_number(s))
+        });
         out.push(warn(
             WarningKind::MeasureVertex,
-            if from.is_cornea() { Field::VertexTo } else { Field::VertexFrom },
-            format!("a meridian of {} is beyond ±4 D: measure the vertex distance{tail}", fmt_power(strongest)),
+            if from.is_cornea() {
+                Field::VertexTo
+            } else {
+                Field::VertexFrom
+            },
+            format!(
+                "a meridian of {} is beyond ±4 D: measure the vertex distance{tail}",
+                fmt_power(strongest)
+            ),
         ));
     }
     let cross = rx.meridians();
     let changes: Vec<f64> = cross
         .both()
         .iter()
-        .filter_map(|m| compensate_power(m.power, from, to).ok().map(|p| (p - m.power).abs()))
+        .filter_map(|m| {
+            compensate_power(m.power, from, to)
+                .ok()
+                .map(|p| (p - m.power).abs())
+        })
         .collect();
     let largest = changes.iter().copied().fold(0.0, f64::max);
     if changes.len() == 2 && largest > 0.0 && largest < 0.25 {

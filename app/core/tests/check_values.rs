@@ -17,7 +17,10 @@ fn mm(x: f64) -> VertexDistance {
 }
 
 fn close(actual: f64, expected: f64, what: &str) {
-    assert!((actual - expected).abs() < TOL, "{what}: got {actual:.6}, expected {expected}");
+    assert!(
+        (actual - expected).abs() < TOL,
+        "{what}: got {actual:.6}, expected {expected}"
+    );
 }
 
 fn to_cornea(power: f64) -> f64 {
@@ -98,9 +101,16 @@ fn c1_trap_compensating_the_cylinder_alone_is_wrong() {
     // correct cylinder is −1.63.
     let alone = to_cornea(-2.0);
     close(alone, -1.9531, "cylinder alone");
-    let cl = compensate(&Rx::new(-8.0, -2.0, 180).unwrap(), VertexDistance::SPECTACLES, VertexDistance::CORNEA)
-        .unwrap();
-    assert!((cl.cylinder() - alone).abs() > 0.3, "core must not compensate the cylinder alone");
+    let cl = compensate(
+        &Rx::new(-8.0, -2.0, 180).unwrap(),
+        VertexDistance::SPECTACLES,
+        VertexDistance::CORNEA,
+    )
+    .unwrap();
+    assert!(
+        (cl.cylinder() - alone).abs() > 0.3,
+        "core must not compensate the cylinder alone"
+    );
     assert_eq!(fmt_power(cl.cylinder()), "-1.63");
 }
 
@@ -119,12 +129,29 @@ fn r1_rounding_per_meridian_vs_separately() {
     // R1 [derived]: −5.50 −2.25 ×180 @ 12 mm: −5.1595 / −7.0906;
     // per meridian −5.25 −1.75; separately −5.25 −2.00
     let rx = Rx::new(-5.5, -2.25, 180).unwrap();
-    let o = order_lens(&rx, VertexDistance::SPECTACLES, VertexDistance::CORNEA, &Ladder::CONTACT_LENS, TieRule::TowardPlus)
-        .unwrap();
-    close(o.exact.meridians().first().power, -5.1595, "R1 meridian 180");
-    close(o.exact.meridians().second().power, -7.0906, "R1 meridian 90");
+    let o = order_lens(
+        &rx,
+        VertexDistance::SPECTACLES,
+        VertexDistance::CORNEA,
+        &Ladder::CONTACT_LENS,
+        TieRule::TowardPlus,
+    )
+    .unwrap();
+    close(
+        o.exact.meridians().first().power,
+        -5.1595,
+        "R1 meridian 180",
+    );
+    close(
+        o.exact.meridians().second().power,
+        -7.0906,
+        "R1 meridian 90",
+    );
     assert_eq!(o.ordered.to_string(), "-5.25 -1.75 ×180");
-    assert_eq!(round_separately(&o.exact, &Ladder::CONTACT_LENS, TieRule::TowardPlus).to_string(), "-5.25 -2.00 ×180");
+    assert_eq!(
+        round_separately(&o.exact, &Ladder::CONTACT_LENS, TieRule::TowardPlus).to_string(),
+        "-5.25 -2.00 ×180"
+    );
 }
 
 fn geometry(target: VertexDistance) -> NearGeometry {
@@ -150,7 +177,11 @@ fn n1_myope_accommodation() {
     let n = near_figures(-6.0, 0.0, &geometry(VertexDistance::CORNEA), None).unwrap();
     close(n.accommodation_spectacles, 2.1162, "N1 spectacles");
     close(n.accommodation_target, 2.4272, "N1 contact lens");
-    close(-geometry(VertexDistance::CORNEA).object_vergence_at_spectacles(), 2.5, "N1 spectacle accommodation");
+    close(
+        -geometry(VertexDistance::CORNEA).object_vergence_at_spectacles(),
+        2.5,
+        "N1 spectacle accommodation",
+    );
 }
 
 #[test]
@@ -169,7 +200,10 @@ fn n3_myope_add_at_the_cornea() {
     close(n.relief_at_eye, 2.1162, "N3 relief");
     close(n.add_at_target, 2.4272, "N3 contact-lens add");
     close(shortcut_add(-6.0, 2.5), 2.2381, "N3 shortcut");
-    assert!((n.add_at_target - shortcut_add(-6.0, 2.5)).abs() > 0.15, "the shortcut must not be the method");
+    assert!(
+        (n.add_at_target - shortcut_add(-6.0, 2.5)).abs() > 0.15,
+        "the shortcut must not be the method"
+    );
 }
 
 #[test]
@@ -180,7 +214,10 @@ fn n4_hyperope_add_at_the_cornea() {
     close(n.relief_at_eye, 2.8121, "N4 relief");
     close(n.add_at_target, 2.4272, "N4 contact-lens add");
     close(shortcut_add(6.0, 2.5), 3.0, "N4 shortcut");
-    assert!((n.add_at_target - shortcut_add(6.0, 2.5)).abs() > 0.5, "the shortcut must not be the method");
+    assert!(
+        (n.add_at_target - shortcut_add(6.0, 2.5)).abs() > 0.5,
+        "the shortcut must not be the method"
+    );
 }
 
 #[test]
@@ -240,7 +277,11 @@ fn a1_tentative_add_age_50_at_40cm() {
     // A1 [textbook]: 40 cm, age 50, minimum amplitude: half reserve 1.25;
     // one-third reserve 0.8333 → 0.75
     let demand = ReadingDistance::from_cm(40.0).unwrap().demand();
-    let t = tentative_add(demand, hofstetter(Age::new(50).unwrap()).minimum, TieRule::TowardPlus);
+    let t = tentative_add(
+        demand,
+        hofstetter(Age::new(50).unwrap()).minimum,
+        TieRule::TowardPlus,
+    );
     close(t.half_reserve, 1.25, "A1 half");
     close(t.third_reserve, 0.8333, "A1 third");
     assert_eq!(t.third_reserve_rounded, 0.75);
@@ -250,14 +291,20 @@ fn a1_tentative_add_age_50_at_40cm() {
 fn d1_demand() {
     // D1 [definition]: demand at 40 / 33.33 / 25 cm → 2.50 / 3.00 / 4.00
     for (cm, want) in [(40.0, "2.50"), (33.33, "3.00"), (25.0, "4.00")] {
-        assert_eq!(fmt_number(ReadingDistance::from_cm(cm).unwrap().demand()), want);
+        assert_eq!(
+            fmt_number(ReadingDistance::from_cm(cm).unwrap().demand()),
+            want
+        );
     }
 }
 
 #[test]
 fn s1_spherical_equivalent() {
     // S1 [definition]: SE of −2.00 −0.50 ×90 → −2.25; +1.50 −1.00 ×180 → +1.00
-    assert_eq!(Rx::new(-2.0, -0.5, 90).unwrap().spherical_equivalent(), -2.25);
+    assert_eq!(
+        Rx::new(-2.0, -0.5, 90).unwrap().spherical_equivalent(),
+        -2.25
+    );
     assert_eq!(Rx::new(1.5, -1.0, 180).unwrap().spherical_equivalent(), 1.0);
 }
 
@@ -265,8 +312,14 @@ fn s1_spherical_equivalent() {
 fn t1_transposition() {
     // T1 [definition]: −2.00 −1.00 ×180 → −3.00 +1.00 ×90;
     // +2.00 +1.00 ×170 → +3.00 −1.00 ×80
-    assert_eq!(Rx::new(-2.0, -1.0, 180).unwrap().transpose().to_string(), "-3.00 +1.00 ×90");
-    assert_eq!(Rx::new(2.0, 1.0, 170).unwrap().transpose().to_string(), "+3.00 -1.00 ×80");
+    assert_eq!(
+        Rx::new(-2.0, -1.0, 180).unwrap().transpose().to_string(),
+        "-3.00 +1.00 ×90"
+    );
+    assert_eq!(
+        Rx::new(2.0, 1.0, 170).unwrap().transpose().to_string(),
+        "+3.00 -1.00 ×80"
+    );
 }
 
 #[test]
@@ -314,10 +367,19 @@ fn crossed_cylinder_from_axis_rotation() {
     // at 20°, off by 5°: 0.3050 D), computed in the core as a power-vector
     // difference.
     let exact = Rx::new(-2.0, -1.75, 15).unwrap();
-    let t = choose_toric(&exact, &ToricSettings::default(), &Ladder::CONTACT_LENS, TieRule::TowardPlus)
-        .unwrap()
-        .unwrap();
+    let t = choose_toric(
+        &exact,
+        &ToricSettings::default(),
+        &Ladder::CONTACT_LENS,
+        TieRule::TowardPlus,
+    )
+    .unwrap()
+    .unwrap();
     assert_eq!(t.ordered.axis(), 20);
     let theta = 5.0_f64.to_radians();
-    close(t.residual_from_axis, 2.0 * 1.75 * theta.sin(), "rotation residual");
+    close(
+        t.residual_from_axis,
+        2.0 * 1.75 * theta.sin(),
+        "rotation residual",
+    );
 }

@@ -75,7 +75,10 @@ fn vertex_compensation_matches_ray_tracing() {
                 let core = compensate_power(f, from, to).unwrap();
                 let k = ocular_refraction(f, d / 1000.0);
                 let traced = lens_for(k, d2 / 1000.0);
-                assert!(agree(core, traced), "{f} from {d} to {d2} mm: core {core}, traced {traced}");
+                assert!(
+                    agree(core, traced),
+                    "{f} from {d} to {d2} mm: core {core}, traced {traced}"
+                );
                 checked += 1;
             }
         }
@@ -114,7 +117,11 @@ fn near_figures_match_ray_tracing() {
                             let pairs = [
                                 ("K", n.ocular_refraction, k),
                                 ("A spectacles", n.accommodation_spectacles, k - le_plain),
-                                ("A with add", n.accommodation_spectacles_with_add, k - le_add),
+                                (
+                                    "A with add",
+                                    n.accommodation_spectacles_with_add,
+                                    k - le_add,
+                                ),
                                 ("A target", n.accommodation_target, k - target_plain),
                                 ("relief", n.relief_at_eye, le_add - le_plain),
                                 ("F2", n.distance_power_at_target, f2),
@@ -157,7 +164,13 @@ fn contact_lens_accommodation_is_one_over_the_distance_from_the_eye() {
 fn cylinders_match_ray_tracing_per_meridian() {
     // A sphero-cylinder is two thin lenses in its two principal meridians;
     // trace each and compare with the recombined prescription.
-    for (s, c, axis) in [(-8.0, -2.0, 180), (6.0, -2.0, 90), (-5.5, -2.25, 180), (2.0, -4.5, 33), (-3.0, 1.5, 120)] {
+    for (s, c, axis) in [
+        (-8.0, -2.0, 180),
+        (6.0, -2.0, 90),
+        (-5.5, -2.25, 180),
+        (2.0, -4.5, 33),
+        (-3.0, 1.5, 120),
+    ] {
         let rx = Rx::new(s, c, axis).unwrap();
         let cl = compensate(&rx, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
         let m1 = ocular_refraction(s, 0.012);

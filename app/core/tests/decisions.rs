@@ -22,10 +22,12 @@ fn d1_results_beyond_100_d_are_errors() {
 #[test]
 fn d2_spherical_equivalent_after_compensating_meridians() {
     let rx = Rx::new(-8.0, -2.0, 180).unwrap();
-    let ours = spherical_equivalent_at(&rx, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
+    let ours =
+        spherical_equivalent_at(&rx, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
     // [derived] (−7.2993 + −8.9286) / 2 = −8.1139
     assert!((ours - -8.11395).abs() < 1e-4);
-    let other_order = compensate_power(-9.0, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
+    let other_order =
+        compensate_power(-9.0, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
     let gap = (ours - other_order).abs();
     assert!(gap > 0.0 && gap < 0.01, "the two orders differ by {gap}");
 }
@@ -37,11 +39,26 @@ fn d3_display_rounding_and_notation() {
     assert_eq!(fmt_power(-0.004), "0.00");
     assert_eq!(fmt_power(0.005), "+0.01");
     assert_eq!(fmt_sphere(0.004), "plano");
-    assert_eq!(PowerCross::new(-2.0, -2.004, 90).unwrap().to_rx().to_string(), "-2.00 DS");
+    assert_eq!(
+        PowerCross::new(-2.0, -2.004, 90)
+            .unwrap()
+            .to_rx()
+            .to_string(),
+        "-2.00 DS"
+    );
     assert_eq!(Rx::sphere_only(0.0).unwrap().to_string(), "plano");
-    assert_eq!(Rx::new(1.0, -0.25, 5).unwrap().to_string(), "+1.00 -0.25 ×5");
-    assert!(!Rx::new(-1.0, -0.25, 5).unwrap().to_string().contains('\u{2212}'));
-    assert!(parse_rx("2 -1 x 9").unwrap_err().to_string().contains('\u{2212}'));
+    assert_eq!(
+        Rx::new(1.0, -0.25, 5).unwrap().to_string(),
+        "+1.00 -0.25 ×5"
+    );
+    assert!(!Rx::new(-1.0, -0.25, 5)
+        .unwrap()
+        .to_string()
+        .contains('\u{2212}'));
+    assert!(parse_rx("2 -1 x 9")
+        .unwrap_err()
+        .to_string()
+        .contains('\u{2212}'));
 }
 
 #[test]
@@ -57,17 +74,26 @@ fn d4_reports_round_per_meridian() {
 }
 
 fn report_to_cornea(rx: Rx) -> VertexReport {
-    vertex_report(&VertexInput { rx, from: VertexDistance::SPECTACLES, to: VertexDistance::CORNEA, settings: OrderSettings::default() })
-        .unwrap()
+    vertex_report(&VertexInput {
+        rx,
+        from: VertexDistance::SPECTACLES,
+        to: VertexDistance::CORNEA,
+        settings: OrderSettings::default(),
+    })
+    .unwrap()
 }
 
 #[test]
 fn d5_toric_offer_threshold_and_axis_ties() {
     // −0.62 cylinder at the cornea rounds to −0.50 (tie to smaller): no toric.
     // Spectacle −1.00 −0.62 ×180 → cornea cylinder ≈ −0.59.
-    assert!(report_to_cornea(Rx::new(-1.0, -0.62, 180).unwrap()).toric.is_none());
+    assert!(report_to_cornea(Rx::new(-1.0, -0.62, 180).unwrap())
+        .toric
+        .is_none());
     // −0.75 at the spectacle plane, low power: about −0.74 at the cornea → offered.
-    let t = report_to_cornea(Rx::new(-1.0, -0.75, 180).unwrap()).toric.expect("toric offered");
+    let t = report_to_cornea(Rx::new(-1.0, -0.75, 180).unwrap())
+        .toric
+        .expect("toric offered");
     assert_eq!(t.ordered.cylinder(), -0.75);
     // Spectacle target: never a toric contact lens.
     let r = vertex_report(&VertexInput {
@@ -83,9 +109,14 @@ fn d5_toric_offer_threshold_and_axis_ties() {
     assert_eq!(round_axis(5, 10), 10);
     assert_eq!(round_axis(4, 10), 180);
     // Cylinder ties go to the smaller: exactly −1.00 between −0.75 and −1.25.
-    let t = choose_toric(&Rx::new(-2.0, -1.0, 90).unwrap(), &ToricSettings::default(), &Ladder::CONTACT_LENS, TieRule::TowardPlus)
-        .unwrap()
-        .unwrap();
+    let t = choose_toric(
+        &Rx::new(-2.0, -1.0, 90).unwrap(),
+        &ToricSettings::default(),
+        &Ladder::CONTACT_LENS,
+        TieRule::TowardPlus,
+    )
+    .unwrap()
+    .unwrap();
     assert_eq!(t.ordered.cylinder(), -0.75);
     // Sphere keeps the SE: −2.50 − (−0.75/2) = −2.125 → tie toward plus → −2.00.
     assert_eq!(t.ordered.sphere(), -2.0);
@@ -95,7 +126,10 @@ fn d5_toric_offer_threshold_and_axis_ties() {
 fn d6_substitute_verdicts() {
     let s = SubstituteSettings::default();
     // Both met.
-    assert_eq!(assess_substitute(&Rx::new(-4.0, -0.75, 180).unwrap(), &s).verdict, Verdict::Suitable);
+    assert_eq!(
+        assess_substitute(&Rx::new(-4.0, -0.75, 180).unwrap(), &s).verdict,
+        Verdict::Suitable
+    );
     // Cylinder met, ratio not (0.50 : 1.00).
     let a = assess_substitute(&Rx::new(-1.0, -0.5, 180).unwrap(), &s);
     assert_eq!(a.verdict, Verdict::Borderline);
@@ -107,9 +141,15 @@ fn d6_substitute_verdicts() {
     let a = assess_substitute(&Rx::new(-4.0, -0.75, 45).unwrap(), &s);
     assert_eq!((a.verdict, a.cylinder_limit), (Verdict::Borderline, 0.5));
     // Against the rule (minus-cylinder axis 90).
-    assert_eq!(Orientation::of(&Rx::new(-4.0, -0.75, 90).unwrap()), Some(Orientation::AgainstTheRule));
+    assert_eq!(
+        Orientation::of(&Rx::new(-4.0, -0.75, 90).unwrap()),
+        Some(Orientation::AgainstTheRule)
+    );
     // Neither.
-    assert_eq!(assess_substitute(&Rx::new(-2.0, -2.0, 180).unwrap(), &s).verdict, Verdict::Unsuitable);
+    assert_eq!(
+        assess_substitute(&Rx::new(-2.0, -2.0, 180).unwrap(), &s).verdict,
+        Verdict::Unsuitable
+    );
     // Mixed astigmatism.
     let a = assess_substitute(&Rx::new(0.25, -0.75, 180).unwrap(), &s);
     assert!(a.mixed);
@@ -118,7 +158,13 @@ fn d6_substitute_verdicts() {
     assert!(!assess_substitute(&Rx::new(0.12, -0.75, 180).unwrap(), &s).mixed);
 }
 
-fn near(rx: Rx, add: f64, target: VertexDistance, age: Option<u8>, measured: Measured) -> NearReport {
+fn near(
+    rx: Rx,
+    add: f64,
+    target: VertexDistance,
+    age: Option<u8>,
+    measured: Measured,
+) -> NearReport {
     near_report(&NearInput {
         rx,
         add: Add::new(add).unwrap(),
@@ -136,12 +182,17 @@ fn near(rx: Rx, add: f64, target: VertexDistance, age: Option<u8>, measured: Mea
 fn d7_near_summary_is_the_spherical_equivalent_and_ordered_near_adds_the_rounded_add() {
     let rx = Rx::new(-5.0, -2.0, 180).unwrap();
     let r = near(rx, 2.0, VertexDistance::CORNEA, None, Measured::FromLens);
-    let se = near_figures(-6.0, 2.0, &NearGeometry {
-        spectacle_vertex: VertexDistance::SPECTACLES,
-        target: VertexDistance::CORNEA,
-        reading: ReadingDistance::from_cm(40.0).unwrap(),
-        measured: Measured::FromLens,
-    }, None)
+    let se = near_figures(
+        -6.0,
+        2.0,
+        &NearGeometry {
+            spectacle_vertex: VertexDistance::SPECTACLES,
+            target: VertexDistance::CORNEA,
+            reading: ReadingDistance::from_cm(40.0).unwrap(),
+            measured: Measured::FromLens,
+        },
+        None,
+    )
     .unwrap();
     assert_eq!(r.add_at_target, se.add_at_target);
     assert_eq!(r.meridians.len(), 2);
@@ -149,13 +200,25 @@ fn d7_near_summary_is_the_spherical_equivalent_and_ordered_near_adds_the_rounded
     assert!((r.meridians[0].add_at_target - r.meridians[1].add_at_target).abs() > 0.01);
     let ordered = r.distance_at_target_ordered.meridians();
     let near_ordered = r.near_at_target_ordered.meridians();
-    assert_eq!(near_ordered.first().power, ordered.first().power + r.add_at_target_rounded);
-    assert_eq!(near_ordered.second().power, ordered.second().power + r.add_at_target_rounded);
+    assert_eq!(
+        near_ordered.first().power,
+        ordered.first().power + r.add_at_target_rounded
+    );
+    assert_eq!(
+        near_ordered.second().power,
+        ordered.second().power + r.add_at_target_rounded
+    );
 }
 
 #[test]
 fn d8_tentative_add_sources_and_reliability() {
-    let r = near(Rx::sphere_only(-1.0).unwrap(), 1.5, VertexDistance::CORNEA, Some(50), Measured::FromLens);
+    let r = near(
+        Rx::sphere_only(-1.0).unwrap(),
+        1.5,
+        VertexDistance::CORNEA,
+        Some(50),
+        Measured::FromLens,
+    );
     let a = r.amplitude.unwrap();
     assert_eq!(a.tentative_from_minimum.half_reserve, 2.5 - 2.5 / 2.0);
     assert_eq!(a.tentative_from_average.half_reserve, 2.5 - 3.5 / 2.0);
@@ -168,13 +231,19 @@ fn d8_tentative_add_sources_and_reliability() {
 
 #[test]
 fn d9_typed_input_rules() {
-    assert_eq!(parse_rx("-2.00 -1.00 90").unwrap().notices[0].kind, NoticeKind::BareAxis);
+    assert_eq!(
+        parse_rx("-2.00 -1.00 90").unwrap().notices[0].kind,
+        NoticeKind::BareAxis
+    );
     assert_eq!(parse_rx("-2.00 -1.00 x90 ").unwrap().notices, vec![]);
     assert!(parse_reading_distance("19").is_err());
     assert_eq!(parse_reading_distance("20").unwrap().value.cm(), 20.0);
     // −25 is within ±30 D: accepted as typed (a warning follows in reports).
     assert_eq!(parse_rx("-25").unwrap().value.sphere(), -25.0);
-    assert_eq!(rx_warnings(&Rx::sphere_only(-25.0).unwrap())[0].kind, WarningKind::HighPower);
+    assert_eq!(
+        rx_warnings(&Rx::sphere_only(-25.0).unwrap())[0].kind,
+        WarningKind::HighPower
+    );
 }
 
 #[test]
@@ -186,11 +255,23 @@ fn d10_add_limit() {
 
 #[test]
 fn d11_reading_distance_from_the_eye() {
-    let from_eye = near(Rx::sphere_only(-6.0).unwrap(), 0.0, VertexDistance::CORNEA, None, Measured::FromEye);
+    let from_eye = near(
+        Rx::sphere_only(-6.0).unwrap(),
+        0.0,
+        VertexDistance::CORNEA,
+        None,
+        Measured::FromEye,
+    );
     // [derived] 40 cm from the eye = 38.8 cm from a lens at 12 mm; with a
     // contact lens the accommodation is then exactly 1/0.40 = 2.50 D.
     assert!((from_eye.equivalent.accommodation_target - 2.5).abs() < 1e-12);
-    let from_lens = near(Rx::sphere_only(-6.0).unwrap(), 0.0, VertexDistance::CORNEA, None, Measured::FromLens);
+    let from_lens = near(
+        Rx::sphere_only(-6.0).unwrap(),
+        0.0,
+        VertexDistance::CORNEA,
+        None,
+        Measured::FromLens,
+    );
     // The notes: about 0.07 D difference at 40 cm.
     let gap = from_eye.equivalent.accommodation_target - from_lens.equivalent.accommodation_target;
     assert!((gap - 0.0728).abs() < 1e-3, "gap {gap}");
@@ -198,8 +279,15 @@ fn d11_reading_distance_from_the_eye() {
 
 #[test]
 fn d12_measure_vertex_warning_states_the_sensitivity() {
-    let w = vertex_warnings(&Rx::sphere_only(12.0).unwrap(), VertexDistance::SPECTACLES, VertexDistance::CORNEA);
-    let m = w.iter().find(|w| w.kind == WarningKind::MeasureVertex).unwrap();
+    let w = vertex_warnings(
+        &Rx::sphere_only(12.0).unwrap(),
+        VertexDistance::SPECTACLES,
+        VertexDistance::CORNEA,
+    );
+    let m = w
+        .iter()
+        .find(|w| w.kind == WarningKind::MeasureVertex)
+        .unwrap();
     // [derived] +12.00 at 12 mm → +14.0187; at 14 mm → +14.4231; 0.40 D
     // (the notes: 2 mm error at +12 D ≈ 0.4 D).
     assert_eq!(m.message, "a meridian of +12.00 is beyond ±4 D: measure the vertex distance; 2 mm changes this result by 0.40 D");
@@ -209,7 +297,15 @@ fn d12_measure_vertex_warning_states_the_sensitivity() {
 #[test]
 fn d13_results_may_exceed_the_input_limits_and_are_not_typed_back() {
     // [derived] +20.00 at 20 mm moved to the cornea: 20 / 0.6 = +33.33.
-    let cl = compensate(&Rx::sphere_only(20.0).unwrap(), mm(20.0), VertexDistance::CORNEA).unwrap();
+    let cl = compensate(
+        &Rx::sphere_only(20.0).unwrap(),
+        mm(20.0),
+        VertexDistance::CORNEA,
+    )
+    .unwrap();
     assert_eq!(cl.to_string(), "+33.33 DS");
-    assert_eq!(parse_rx(&cl.to_string()).unwrap_err().to_string(), "sphere +33.33 is outside ±30 D");
+    assert_eq!(
+        parse_rx(&cl.to_string()).unwrap_err().to_string(),
+        "sphere +33.33 is outside ±30 D"
+    );
 }

@@ -12,9 +12,19 @@ fn reads(text: &str, shown: &str) -> Vec<NoticeKind> {
 
 #[test]
 fn minus_look_alikes_are_minus_and_echoed() {
-    for text in ["\u{2212}6.00", "\u{2013}6", "\u{FF0D}6", "\u{2014}6.00", "-6"] {
+    for text in [
+        "\u{2212}6.00",
+        "\u{2013}6",
+        "\u{FF0D}6",
+        "\u{2014}6.00",
+        "-6",
+    ] {
         let kinds = reads(text, "-6.00 DS");
-        assert_eq!(kinds.contains(&NoticeKind::MinusRead), text != "-6", "for {text:?}");
+        assert_eq!(
+            kinds.contains(&NoticeKind::MinusRead),
+            text != "-6",
+            "for {text:?}"
+        );
     }
     let p = parse_rx("\u{2212}6.00").unwrap();
     assert_eq!(p.notices[0].message, "read the dash as a minus: -6.00");
@@ -29,7 +39,9 @@ fn comma_decimals() {
 
 #[test]
 fn plano_forms() {
-    for text in ["pl", "plano", "PLANO", "0", "±0.00", "0.00", "+0.00", "-0.00", "pl DS"] {
+    for text in [
+        "pl", "plano", "PLANO", "0", "±0.00", "0.00", "+0.00", "-0.00", "pl DS",
+    ] {
         reads(text, "plano");
     }
     reads("pl -0.50 x 90", "plano -0.50 ×90");
@@ -38,7 +50,15 @@ fn plano_forms() {
 
 #[test]
 fn spherical_markers() {
-    for text in ["-3.75 DS", "-3.75 sph", "-3.75 D.S.", "-3.75D", "-3.75 ds", "-3.75 d", "sph -3.75"] {
+    for text in [
+        "-3.75 DS",
+        "-3.75 sph",
+        "-3.75 D.S.",
+        "-3.75D",
+        "-3.75 ds",
+        "-3.75 d",
+        "sph -3.75",
+    ] {
         reads(text, "-3.75 DS");
     }
 }
@@ -58,7 +78,10 @@ fn axis_markers() {
         "-2.00D -1.00DC x180",
         "sph -2.00 cyl -1.00 ax 180",
     ] {
-        assert!(reads(text, "-2.00 -1.00 ×180").is_empty(), "no notice expected for {text:?}");
+        assert!(
+            reads(text, "-2.00 -1.00 ×180").is_empty(),
+            "no notice expected for {text:?}"
+        );
     }
     reads("+1.50 -0.75 x005", "+1.50 -0.75 ×5");
     reads("+1.50 -0.75 x 5", "+1.50 -0.75 ×5");
@@ -66,13 +89,20 @@ fn axis_markers() {
 
 #[test]
 fn bare_third_number_is_the_axis_with_a_notice() {
-    assert_eq!(reads("-2.00 -1.00 180", "-2.00 -1.00 ×180"), vec![NoticeKind::BareAxis]);
+    assert_eq!(
+        reads("-2.00 -1.00 180", "-2.00 -1.00 ×180"),
+        vec![NoticeKind::BareAxis]
+    );
 }
 
 #[test]
 fn axis_zero_is_stored_as_180_and_said() {
     for text in ["-1.00 -0.50 x0", "-1.00 -0.50 x000", "-1.00 -0.50 @ 0"] {
-        assert_eq!(reads(text, "-1.00 -0.50 ×180"), vec![NoticeKind::AxisZero], "for {text:?}");
+        assert_eq!(
+            reads(text, "-1.00 -0.50 ×180"),
+            vec![NoticeKind::AxisZero],
+            "for {text:?}"
+        );
     }
 }
 
@@ -83,7 +113,10 @@ fn off_step_is_accepted_with_the_rounded_value() {
     let msgs: Vec<_> = p.notices.iter().map(|n| n.message.as_str()).collect();
     assert_eq!(
         msgs,
-        ["sphere -2.30 is between quarter steps; nearest -2.25", "cylinder -0.80 is between quarter steps; nearest -0.75"]
+        [
+            "sphere -2.30 is between quarter steps; nearest -2.25",
+            "cylinder -0.80 is between quarter steps; nearest -0.75"
+        ]
     );
 }
 
@@ -95,12 +128,18 @@ fn plus_cylinder_form_is_kept() {
 #[test]
 fn zero_cylinder_needs_no_axis_and_ignores_one() {
     reads("-2.00 0.00", "-2.00 DS");
-    assert_eq!(reads("-2.00 -0.00 x 90", "-2.00 DS"), vec![NoticeKind::AxisIgnored]);
+    assert_eq!(
+        reads("-2.00 -0.00 x 90", "-2.00 DS"),
+        vec![NoticeKind::AxisIgnored]
+    );
 }
 
 #[test]
 fn fullwidth_input_from_an_ime() {
-    reads("\u{FF0D}\u{FF12}\u{FF0E}\u{FF10}\u{FF10} \u{FF0D}\u{FF11} \u{D7}\u{FF19}\u{FF10}", "-2.00 -1.00 ×90");
+    reads(
+        "\u{FF0D}\u{FF12}\u{FF0E}\u{FF10}\u{FF10} \u{FF0D}\u{FF11} \u{D7}\u{FF19}\u{FF10}",
+        "-2.00 -1.00 ×90",
+    );
 }
 
 #[test]
@@ -131,13 +170,22 @@ fn vertex_reading_add_age() {
     assert_eq!(parse_reading_distance("40").unwrap().value.cm(), 40.0);
     assert_eq!(parse_reading_distance("33 cm").unwrap().value.cm(), 33.0);
     assert_eq!(parse_reading_distance("0.4 m").unwrap().value.cm(), 40.0);
-    assert_eq!(parse_reading_distance("16\"").unwrap().value.cm(), 16.0 * 2.54);
-    assert_eq!(parse_reading_distance("14 inches").unwrap().value.cm(), 14.0 * 2.54);
+    assert_eq!(
+        parse_reading_distance("16\"").unwrap().value.cm(),
+        16.0 * 2.54
+    );
+    assert_eq!(
+        parse_reading_distance("14 inches").unwrap().value.cm(),
+        14.0 * 2.54
+    );
 
     assert_eq!(parse_add("+2.50").unwrap().value.dioptres(), 2.5);
     assert_eq!(parse_add("add 1,75").unwrap().value.dioptres(), 1.75);
     assert_eq!(parse_add("2 D").unwrap().value.dioptres(), 2.0);
-    assert_eq!(parse_add("2.1").unwrap().notices[0].kind, NoticeKind::OffStep);
+    assert_eq!(
+        parse_add("2.1").unwrap().notices[0].kind,
+        NoticeKind::OffStep
+    );
 
     assert_eq!(parse_age("50 years").unwrap().value.years(), 50);
     assert_eq!(parse_age("7 y").unwrap().value.years(), 7);

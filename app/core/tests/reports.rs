@@ -9,7 +9,13 @@ fn mm(x: f64) -> VertexDistance {
 }
 
 fn vertex(rx: Rx, from: f64, to: f64) -> VertexReport {
-    vertex_report(&VertexInput { rx, from: mm(from), to: mm(to), settings: OrderSettings::default() }).unwrap()
+    vertex_report(&VertexInput {
+        rx,
+        from: mm(from),
+        to: mm(to),
+        settings: OrderSettings::default(),
+    })
+    .unwrap()
 }
 
 fn kinds(w: &[Warning]) -> Vec<WarningKind> {
@@ -37,7 +43,10 @@ fn vertex_report_c1_everything_the_panel_shows() {
     assert_eq!(r.ordered.back_at_origin.to_string(), "-8.24 -1.85 ×180");
     assert_eq!(fmt_power(r.ordered.residual.first().power), "-0.24");
     assert_eq!(fmt_power(r.ordered.residual.second().power), "-0.09");
-    assert_eq!(r.reason, "moving a correction toward the eye needs more plus (less minus)");
+    assert_eq!(
+        r.reason,
+        "moving a correction toward the eye needs more plus (less minus)"
+    );
     assert_eq!(kinds(&r.warnings), vec![WarningKind::MeasureVertex]);
     let t = r.toric.unwrap();
     assert_eq!(t.ordered.to_string(), "-7.00 -1.75 ×180");
@@ -52,7 +61,10 @@ fn vertex_report_v6_spectacles_moving_away() {
     assert_eq!(r.exact.to_string(), "-10.42 DS");
     assert_eq!(r.ordered.ordered.to_string(), "-10.50 DS");
     assert_eq!(r.ladder, LadderKind::Spectacle);
-    assert_eq!(r.reason, "moving a correction away from the eye needs less plus (more minus)");
+    assert_eq!(
+        r.reason,
+        "moving a correction away from the eye needs less plus (more minus)"
+    );
     assert!(r.toric.is_none());
 }
 
@@ -61,13 +73,19 @@ fn vertex_report_warnings() {
     // Low power: change below a quarter step [derived: −1.00 → −0.9881].
     let r = vertex(Rx::sphere_only(-1.0).unwrap(), 12.0, 0.0);
     assert_eq!(kinds(&r.warnings), vec![WarningKind::BelowQuarterStep]);
-    assert_eq!(r.warnings[0].message, "the change is below a quarter step (0.01 D at most): vertex makes little difference here");
+    assert_eq!(
+        r.warnings[0].message,
+        "the change is below a quarter step (0.01 D at most): vertex makes little difference here"
+    );
     assert_eq!(r.warnings[0].field, Field::Result);
     // Unusual spectacle vertex.
     let r = vertex(Rx::sphere_only(-1.0).unwrap(), 25.0, 12.0);
     assert_eq!(r.warnings[0].kind, WarningKind::UnusualVertex);
     assert_eq!(r.warnings[0].field, Field::VertexFrom);
-    assert_eq!(r.warnings[0].message, "vertex distance 25 mm is unusual for spectacles (usually 8–20 mm): check it");
+    assert_eq!(
+        r.warnings[0].message,
+        "vertex distance 25 mm is unusual for spectacles (usually 8–20 mm): check it"
+    );
     // Off-step input.
     let r = vertex(Rx::new(-2.3, -1.0, 90).unwrap(), 12.0, 0.0);
     assert_eq!(r.warnings[0].kind, WarningKind::OffStep);
@@ -83,7 +101,10 @@ fn vertex_report_warnings() {
     assert_eq!(k, vec![WarningKind::HighPower, WarningKind::HighCylinder]);
     assert_eq!(r.reason, "same vertex distance: no change");
     // Plano.
-    assert_eq!(vertex(Rx::sphere_only(0.0).unwrap(), 12.0, 0.0).reason, "plano stays plano at any vertex distance");
+    assert_eq!(
+        vertex(Rx::sphere_only(0.0).unwrap(), 12.0, 0.0).reason,
+        "plano stays plano at any vertex distance"
+    );
 }
 
 #[test]
@@ -124,13 +145,23 @@ fn near(rx: Rx, add: f64, target: VertexDistance, age: Option<u8>) -> NearReport
 #[test]
 fn near_report_summary_lines() {
     // N3 [derived]: myope, add fully neutralising 40 cm.
-    let r = near(Rx::sphere_only(-6.0).unwrap(), 2.5, VertexDistance::CORNEA, None);
+    let r = near(
+        Rx::sphere_only(-6.0).unwrap(),
+        2.5,
+        VertexDistance::CORNEA,
+        None,
+    );
     assert_eq!(
         r.summary,
         "a myope in contact lenses needs more accommodation at this distance (2.43 D vs 2.12 D through the spectacles); the equivalent add is +2.43, within a quarter step of the spectacle add +2.50"
     );
     // [derived] hyperope +6.00 with add +2.00: equivalent add +1.8504.
-    let r = near(Rx::sphere_only(6.0).unwrap(), 2.0, VertexDistance::CORNEA, None);
+    let r = near(
+        Rx::sphere_only(6.0).unwrap(),
+        2.0,
+        VertexDistance::CORNEA,
+        None,
+    );
     assert!((r.add_at_target - 1.8504).abs() < 1e-4);
     assert_eq!(
         r.summary,
@@ -138,12 +169,22 @@ fn near_report_summary_lines() {
     );
     // Another spectacle distance.
     let r = near(Rx::sphere_only(-6.0).unwrap(), 0.0, mm(16.0), None);
-    assert!(r.summary.starts_with("a myope with the lens at 16 mm needs less accommodation"), "{}", r.summary);
+    assert!(
+        r.summary
+            .starts_with("a myope with the lens at 16 mm needs less accommodation"),
+        "{}",
+        r.summary
+    );
 }
 
 #[test]
 fn near_report_warnings_and_amplitude() {
-    let r = near(Rx::sphere_only(-3.0).unwrap(), 2.5, VertexDistance::CORNEA, Some(62));
+    let r = near(
+        Rx::sphere_only(-3.0).unwrap(),
+        2.5,
+        VertexDistance::CORNEA,
+        Some(62),
+    );
     let k = kinds(&r.warnings);
     for want in [
         WarningKind::MultifocalLabels,
@@ -159,7 +200,11 @@ fn near_report_warnings_and_amplitude() {
     // Age 45, add +2.50 at 40 cm: far above the age estimate [published,
     // Hofstetter: minimum 3.75 → 2.50 − 1.875 = 0.625; maximum 7.00 → 0].
     let r = near(Rx::sphere_only(-3.0).unwrap(), 2.5, mm(12.0), Some(45));
-    let w = r.warnings.iter().find(|w| w.kind == WarningKind::AddDiffersFromAge).unwrap();
+    let w = r
+        .warnings
+        .iter()
+        .find(|w| w.kind == WarningKind::AddDiffersFromAge)
+        .unwrap();
     assert_eq!(w.message, "the add +2.50 is outside the age estimate (0.00 to +0.63, half in reserve): check the amplitude");
     assert!(!kinds(&r.warnings).contains(&WarningKind::MultifocalLabels));
     // Same plane: the add does not change.
@@ -171,7 +216,12 @@ fn reports_round_trip_through_serde() {
     let v = vertex(Rx::new(-8.0, -2.0, 180).unwrap(), 12.0, 0.0);
     let back: VertexReport = serde_json::from_str(&serde_json::to_string(&v).unwrap()).unwrap();
     assert_eq!(back, v);
-    let n = near(Rx::new(2.0, -1.5, 35).unwrap(), 2.0, VertexDistance::CORNEA, Some(55));
+    let n = near(
+        Rx::new(2.0, -1.5, 35).unwrap(),
+        2.0,
+        VertexDistance::CORNEA,
+        Some(55),
+    );
     let back: NearReport = serde_json::from_str(&serde_json::to_string(&n).unwrap()).unwrap();
     assert_eq!(back, n);
     let e = equivalent_report(&EquivalentInput {
@@ -192,21 +242,37 @@ fn deserialising_checks_values() {
     assert!(serde_json::from_str::<VertexDistance>("31.0").is_err());
     assert!(serde_json::from_str::<Age>("0").is_err());
     assert!(serde_json::from_str::<Add>("-1.0").is_err());
-    assert_eq!(serde_json::from_str::<VertexDistance>("12.0").unwrap(), VertexDistance::SPECTACLES);
+    assert_eq!(
+        serde_json::from_str::<VertexDistance>("12.0").unwrap(),
+        VertexDistance::SPECTACLES
+    );
 }
 
 #[test]
 fn eye_pair_either_may_be_absent() {
-    let pair = EyePair { right: Some(Rx::sphere_only(-2.0).unwrap()), left: None };
+    let pair = EyePair {
+        right: Some(Rx::sphere_only(-2.0).unwrap()),
+        left: None,
+    };
     let reports = pair.map(|rx| vertex(rx, 12.0, 0.0));
     assert!(reports.left.is_none());
-    assert_eq!(reports.get(Eye::Right).unwrap().exact.to_string(), "-1.95 DS");
+    assert_eq!(
+        reports.get(Eye::Right).unwrap().exact.to_string(),
+        "-1.95 DS"
+    );
 }
 
 #[test]
 fn cautions_cover_the_usual_points() {
     let all = CAUTIONS.join(" ");
-    for needle in ["starting points", "over-refraction", "corneal vertex", "±4 D", "licensed practice", "identifiers"] {
+    for needle in [
+        "starting points",
+        "over-refraction",
+        "corneal vertex",
+        "±4 D",
+        "licensed practice",
+        "identifiers",
+    ] {
         assert!(all.contains(needle), "missing {needle}");
     }
 }

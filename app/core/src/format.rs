@@ -25,8 +25,14 @@ fn digits(h: i64) -> String {
     format!("{}.{:02}", a / 100, a % 100)
 }
 
+/// Shown instead of a figure that is not finite. The core never produces
+/// one within the input limits; this guards against showing `0.00` for a
+/// value that is not a number.
+const NOT_A_FIGURE: &str = "\u{2014}";
+
 /// A power in dioptres with two decimals and its sign: `+4.25`, `-3.82`.
 /// Zero (anything that shows as 0.00) is `0.00`, never `+0.00` or `-0.00`.
+/// A non-finite value shows as `—`, never as a number.
 ///
 /// ```
 /// use lensplane_core::fmt_power;
@@ -35,6 +41,9 @@ fn digits(h: i64) -> String {
 /// assert_eq!(fmt_power(-0.001), "0.00");
 /// ```
 pub fn fmt_power(x: f64) -> String {
+    if !x.is_finite() {
+        return NOT_A_FIGURE.to_string();
+    }
     let h = hundredths(x);
     match h.signum() {
         0 => "0.00".to_string(),
@@ -51,7 +60,7 @@ pub fn fmt_power(x: f64) -> String {
 /// assert_eq!(fmt_sphere(-7.2993), "-7.30");
 /// ```
 pub fn fmt_sphere(x: f64) -> String {
-    if hundredths(x) == 0 {
+    if x.is_finite() && hundredths(x) == 0 {
         "plano".to_string()
     } else {
         fmt_power(x)
@@ -67,6 +76,9 @@ pub fn fmt_sphere(x: f64) -> String {
 /// assert_eq!(fmt_number(-0.004), "0.00");
 /// ```
 pub fn fmt_number(x: f64) -> String {
+    if !x.is_finite() {
+        return NOT_A_FIGURE.to_string();
+    }
     let h = hundredths(x);
     if h < 0 {
         format!("-{}", digits(h))

@@ -92,7 +92,8 @@
 //!    or `plano` (sphere); a cylinder that shows as 0.00 prints as `DS`;
 //!    a plano spherical prescription prints `plano`. Axes print without
 //!    leading zeros (`×5`). Figures use ASCII `-`; error messages use the
-//!    typographic minus `−` as in printed prose.
+//!    typographic minus `−` as in printed prose. A non-finite figure (never
+//!    produced within the limits) would print `—`, never `0.00`.
 //! 4. **Rounding per meridian** is what reports order; sphere-and-cylinder
 //!    rounding ([`round_separately`]) is available only for comparison.
 //! 5. **Toric offer.** Shown when the target is the cornea and the cylinder

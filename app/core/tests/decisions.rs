@@ -38,6 +38,10 @@ fn d3_display_rounding_and_notation() {
     assert_eq!(fmt_number(-2.675), "-2.68");
     assert_eq!(fmt_power(-0.004), "0.00");
     assert_eq!(fmt_power(0.005), "+0.01");
+    // Never a misleading 0.00 for something that is not a number.
+    assert_eq!(fmt_power(f64::NAN), "\u{2014}");
+    assert_eq!(fmt_number(f64::INFINITY), "\u{2014}");
+    assert_eq!(fmt_sphere(f64::NAN), "\u{2014}");
     assert_eq!(fmt_sphere(0.004), "plano");
     assert_eq!(
         PowerCross::new(-2.0, -2.004, 90)

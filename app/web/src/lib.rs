@@ -8,6 +8,8 @@ pub mod link;
 pub mod history;
 mod panels;
 mod shell;
+mod sync;
+mod widgets;
 
 use leptos::prelude::*;
 

@@ -1,11 +1,15 @@
-//! The app shell: header, compact navigation, the four destinations.
+//! The app shell: masthead, compact navigation, the four destinations,
+//! the connection indicator and the footer.
 
+use crate::history::History;
+use crate::link::{Destination, Query};
 use crate::panels::{EquivalentPanel, HistoryPanel, NearPanel, VertexPanel};
+use crate::sync::{carried_href, Base, Carry};
 use leptos::prelude::*;
 use leptos_router::components::{Redirect, Route, Router, Routes, A};
 use leptos_router::path;
 
-/// Where the app is deployed ("/" or "/sub/"), as recorded by boot.js.
+/// Where the app is deployed ("" or "/sub"), as recorded by boot.js.
 fn deploy_base() -> String {
     let root = js_sys::Reflect::get(&js_sys::global(), &wasm_bindgen::JsValue::from_str("LENSPLANE_ROOT"))
         .ok()
@@ -14,22 +18,71 @@ fn deploy_base() -> String {
     root.trim_end_matches('/').to_string()
 }
 
+/// The build id and version written into the page by the build.
+pub fn build_meta(name: &str) -> String {
+    document()
+        .query_selector(&format!("meta[name=\"{name}\"]"))
+        .ok()
+        .flatten()
+        .and_then(|m| m.get_attribute("content"))
+        .unwrap_or_else(|| "unknown".into())
+}
+
+fn nav_label(dest: Destination) -> &'static str {
+    match dest {
+        Destination::Vertex => "Vertex",
+        Destination::Equivalent => "Sph. equivalent",
+        Destination::Near => "Near",
+        Destination::History => "History",
+    }
+}
+
+/// Online/offline, from the browser's own events.
+#[component]
+fn ConnectionBadge() -> impl IntoView {
+    let online = RwSignal::new(window().navigator().on_line());
+    let on = window_event_listener(leptos::ev::online, move |_| online.set(true));
+    let off = window_event_listener(leptos::ev::offline, move |_| online.set(false));
+    on_cleanup(move || {
+        on.remove();
+        off.remove();
+    });
+    view! {
+        <span class="connection" class:offline=move || !online.get() role="status">
+            {move || if online.get() { "Online" } else { "Offline: everything still works" }}
+        </span>
+    }
+}
+
 #[component]
 pub fn App() -> impl IntoView {
-    provide_context(crate::history::History::new());
+    let base = deploy_base();
+    provide_context(Base(base.clone()));
+    provide_context(History::new());
+    let carry = RwSignal::new(Query::default());
+    provide_context(Carry(carry));
+    let links = move || {
+        Destination::ALL
+            .into_iter()
+            .map(|d| {
+                let href = move || carried_href(d, &carry.get());
+                view! { <A href=href>{nav_label(d)}</A> }
+            })
+            .collect_view()
+    };
     view! {
-        <Router base=deploy_base()>
+        <Router base=base>
+            <a class="skip-link" href="#main">"Skip to the calculator"</a>
             <header class="masthead">
-                <span class="brand">"Lensplane"</span>
+                <span class="brand">
+                    <img src="icons/icon.svg" alt="" width="28" height="28"/>
+                    "Lensplane"
+                </span>
+                <ConnectionBadge/>
             </header>
-            <nav class="destinations" aria-label="Calculators">
-                <A href="/vertex">"Vertex"</A>
-                <A href="/equivalent">"Sph. equivalent"</A>
-                <A href="/near">"Near"</A>
-                <A href="/history">"History"</A>
-            </nav>
-            <main id="main">
-                <Routes fallback=|| view! { <p>"This page does not exist in Lensplane."</p> }>
+            <nav class="destinations" aria-label="Calculators">{links}</nav>
+            <main id="main" tabindex="-1">
+                <Routes fallback=|| view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }>
                     <Route path=path!("/") view=|| view! { <Redirect path="vertex"/> }/>
                     <Route path=path!("/vertex") view=VertexPanel/>
                     <Route path=path!("/equivalent") view=EquivalentPanel/>
@@ -37,6 +90,10 @@ pub fn App() -> impl IntoView {
                     <Route path=path!("/history") view=HistoryPanel/>
                 </Routes>
             </main>
+            <footer class="colophon">
+                <p>"Lensplane computes starting points, not prescriptions. Follow local regulations and licensed practice. Everything stays on this device."</p>
+                <p class="build">{format!("Version {} · build {}", build_meta("lensplane-version"), build_meta("lensplane-build"))}</p>
+            </footer>
         </Router>
     }
 }

@@ -1,0 +1,63 @@
+//! Copy the calculation as plain text, or save it (with an optional label)
+//! to the on-device history.
+
+use crate::history::{History, SaveRequest};
+use leptos::prelude::*;
+
+/// Writes text to the clipboard; the future resolves with whether it worked.
+async fn copy_to_clipboard(text: String) -> bool {
+    let Some(window) = web_sys::window() else { return false };
+    let promise = window.navigator().clipboard().write_text(&text);
+    wasm_bindgen_futures::JsFuture::from(promise).await.is_ok()
+}
+
+#[component]
+pub fn SaveBar(
+    id_prefix: &'static str,
+    /// The calculation as plain text in trade notation, or `None` when there is nothing to copy.
+    text: Signal<Option<String>>,
+    /// What to save for a label, or `None` when there is nothing to save.
+    request: Callback<String, Option<SaveRequest>>,
+) -> impl IntoView {
+    let history = use_context::<History>().unwrap_or_default();
+    let label = RwSignal::new(String::new());
+    let status = RwSignal::new(String::new());
+    let save = move || match request.run(label.get_untracked()) {
+        Some(req) => match history.save(req) {
+            Ok(msg) => {
+                status.set(msg);
+                label.set(String::new());
+            }
+            Err(msg) => status.set(msg),
+        },
+        None => status.set("Nothing to save yet: enter a prescription for at least one eye.".into()),
+    };
+    let copy = move |_| {
+        let Some(t) = text.get_untracked() else {
+            status.set("Nothing to copy yet.".into());
+            return;
+        };
+        leptos::task::spawn_local(async move {
+            let ok = copy_to_clipboard(t).await;
+            status.set(if ok { "Copied as text.".into() } else { "The browser did not allow copying; select the result text instead.".into() });
+        });
+    };
+    let label_id = format!("{id_prefix}-label");
+    let hint_id = format!("{id_prefix}-label-hint");
+    view! {
+        <form class="save-bar" on:submit=move |ev| { ev.prevent_default(); save(); }>
+            <div class="field">
+                <label for=label_id.clone()>"Label (optional)"</label>
+                <input id=label_id type="text" maxlength="60" autocomplete="off" enterkeyhint="done"
+                    aria-describedby=hint_id.clone()
+                    prop:value=move || label.get() on:input=move |ev| label.set(event_target_value(&ev))/>
+                <p id=hint_id class="field-msg hint">"No names or patient identifiers: a room, a case number of your own, a note."</p>
+            </div>
+            <div class="actions">
+                <button type="submit" class="button primary">"Save to history"</button>
+                <button type="button" class="button" on:click=copy>"Copy as text"</button>
+            </div>
+            <p class="status" role="status">{move || status.get()}</p>
+        </form>
+    }
+}

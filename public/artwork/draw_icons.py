@@ -1,5 +1,5 @@
 # Regenerate: python3 draw_icons.py, then screenshot each *.html with headless Chromium at its size
-# (see DEVELOPERS.md). The PNGs in ../icons are the committed output.
+# (see DEVELOPERS.md), then shrink each with `pngquant --quality=70-95 --speed 1` and `optipng -o7`. The PNGs in ../icons are the committed output.
 # Draws Lensplane's icon: a lens and the plane it moves to, with a ray crossing both.
 def svg(size_frame, maskable):
     # All coordinates on a 512 grid; the maskable version keeps content in the 80% safe circle.

@@ -61,11 +61,14 @@ pub fn App() -> impl IntoView {
     provide_context(History::new());
     let carry = RwSignal::new(Query::default());
     provide_context(Carry(carry));
+    let link_base = base.clone();
     let links = move || {
         Destination::ALL
             .into_iter()
             .map(|d| {
-                let href = move || carried_href(d, &carry.get());
+                // The router does not add its base to absolute links.
+                let b = link_base.clone();
+                let href = move || format!("{b}{}", carried_href(d, &carry.get()));
                 view! { <A href=href>{nav_label(d)}</A> }
             })
             .collect_view()

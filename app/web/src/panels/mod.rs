@@ -1,5 +1,6 @@
 //! One module per destination.
 
+mod common;
 mod equivalent;
 mod history;
 mod near;

@@ -1,22 +1,15 @@
 //! The vertex destination: a full prescription for each eye moved to the
 //! cornea (contact lens) or to another vertex distance.
 
-use crate::history::{EyeSummary, SaveRequest};
+use super::common::{summary, EyeOutcome, Eyes};
 use crate::link::{Destination, Query};
 use crate::sync::{initial_query, use_link_sync};
-use crate::widgets::{
-    eye_words, shown_memo, Cautions, EyeEntry, EyeEntryForm, PlaneInputs, Planes, PowerCrossDiagram, SaveBar, Shown,
-    ShownNote, WarningList,
-};
+use crate::widgets::{Card, Cautions, EyeCard, EyeEntryForm, PlaneInputs, Planes, Row, SaveBar};
 use lensplane_core::{
-    fmt_dioptres, vertex_report, Eye, LadderKind, OrderSettings, Rx, VertexInput, VertexReport,
+    fmt_dioptres, fmt_number, vertex_report, Eye, LadderKind, OrderSettings, PowerCross, VertexDistance, VertexInput,
+    VertexReport,
 };
 use leptos::prelude::*;
-
-fn form_of(report: &VertexReport, plus: bool, which: fn(&VertexReport) -> (Rx, Rx)) -> String {
-    let (minus_form, plus_form) = which(report);
-    if plus { plus_form } else { minus_form }.to_string()
-}
 
 fn ladder_words(kind: LadderKind) -> &'static str {
     match kind {
@@ -25,160 +18,79 @@ fn ladder_words(kind: LadderKind) -> &'static str {
     }
 }
 
-/// One line per meridian: "180: +0.06 D".
-fn per_meridian(cross: &lensplane_core::PowerCross) -> String {
+/// "the cornea (contact lens)" or "14 mm".
+pub fn plane_words(d: VertexDistance) -> String {
+    if d.is_cornea() { "the cornea (contact lens)".into() } else { format!("{} mm", fmt_number(d.mm())) }
+}
+
+/// "180: +0.06 D, 90: -0.07 D".
+pub fn per_meridian(cross: &PowerCross) -> String {
     cross.both().iter().map(|m| format!("{}: {}", m.axis, fmt_dioptres(m.power))).collect::<Vec<_>>().join(", ")
 }
 
-#[component]
-fn EyeResult(eye: Eye, shown: Memo<Shown<VertexReport>>, plus: RwSignal<bool>, planes: Planes) -> impl IntoView {
-    let (word, letter) = eye_words(eye);
-    let region = format!("{word} eye result");
-    let body = move || {
-        let report = shown.get().result()?.clone();
-        let plus = plus.get();
-        let exact = form_of(&report, plus, |r| (r.exact_minus_cyl, r.exact_plus_cyl));
-        let ordered = form_of(&report, plus, |r| (r.ordered_minus_cyl, r.ordered_plus_cyl));
-        let input = if plus { report.input.to_plus_cyl() } else { report.input.to_minus_cyl() }.to_string();
-        let from_mm = fmt_number_mm(&report);
-        let toric = report.toric.clone().map(|t| {
-            view! {
-                <div class="result-row">
-                    <dt>"Toric contact lens"</dt>
-                    <dd>
-                        <span class="rx">{t.ordered.to_string()}</span>
-                        <span class="detail">{format!(
-                            "left uncorrected: {} cylinder ({} from the axis step, {} from the cylinder step); spherical equivalent {}",
-                            fmt_dioptres(t.residual_cylinder), fmt_dioptres(t.residual_from_axis),
-                            fmt_dioptres(t.residual_from_cylinder), fmt_dioptres(t.residual_spherical_equivalent))}</span>
-                    </dd>
-                </div>
-            }
-        });
-        let label = format!("{word} eye power cross: before and after the move");
-        Some(view! {
-            <p class="result-main">
-                <span class="result-label">{format!("Exact {}", planes.target_words())}</span>
-                <output class="rx big">{exact}</output>
-            </p>
-            <p class="reason">{format!("From {input} at {from_mm}: {}.", report.reason)}</p>
-            <dl class="result-list">
-                <div class="result-row">
-                    <dt>{format!("Orderable ({})", ladder_words(report.ladder))}</dt>
-                    <dd>
-                        <span class="rx">{ordered}</span>
-                        <span class="detail">{format!(
-                            "worth {} back at {}; residual per meridian {}",
-                            report.ordered.back_at_origin, from_mm, per_meridian(&report.ordered.residual))}</span>
-                    </dd>
-                </div>
-                <div class="result-row">
-                    <dt>"Change per meridian"</dt>
-                    <dd><span class="detail">{per_meridian(&report.change)}</span></dd>
-                </div>
-                {toric}
-            </dl>
-            <WarningList warnings=Signal::derive(move || shown.get().result().map(|r| r.warnings.clone()).unwrap_or_default())/>
-            <PowerCrossDiagram before=report.meridians_before after=report.meridians_after label=label/>
-        })
-    };
-    view! {
-        <section class="eye-result" aria-label=region class:stale=move || matches!(shown.get(), Shown::Stale(..))>
-            <h2>{format!("{word} eye ({letter})")}</h2>
-            <ShownNote shown=shown/>
-            {move || matches!(shown.get(), Shown::Empty).then(|| view! { <p class="empty-note">"No prescription entered for this eye."</p> })}
-            {body}
-        </section>
+/// The vertex result of one eye as a card, in minus- or plus-cylinder form.
+pub fn vertex_card(r: &VertexReport, plus: bool) -> Card {
+    let form = |minus: lensplane_core::Rx, plus_form: lensplane_core::Rx| if plus { plus_form } else { minus }.to_string();
+    let input = if plus { r.input.to_plus_cyl() } else { r.input.to_minus_cyl() };
+    let from = plane_words(r.from);
+    let mut rows = vec![
+        Row::new(
+            format!("Orderable ({})", ladder_words(r.ladder)),
+            form(r.ordered_minus_cyl, r.ordered_plus_cyl),
+            format!("worth {} back at {from}; residual per meridian {}", r.ordered.back_at_origin, per_meridian(&r.ordered.residual)),
+        ),
+        Row::new("Change per meridian", "", per_meridian(&r.change)),
+    ];
+    if let Some(t) = &r.toric {
+        rows.push(Row::new(
+            "Toric contact lens",
+            t.ordered.to_string(),
+            format!(
+                "left uncorrected: {} cylinder ({} from the axis step, {} from the cylinder step); spherical equivalent {}",
+                fmt_dioptres(t.residual_cylinder),
+                fmt_dioptres(t.residual_from_axis),
+                fmt_dioptres(t.residual_from_cylinder),
+                fmt_dioptres(t.residual_spherical_equivalent)
+            ),
+        ));
     }
-}
-
-fn fmt_number_mm(report: &VertexReport) -> String {
-    if report.from.is_cornea() { "the cornea".into() } else { format!("{} mm", lensplane_core::fmt_number(report.from.mm())) }
-}
-
-/// Plain-text summary of the panel, for the clipboard.
-fn summary_text(planes: &Planes, eyes: &[(Eye, Shown<VertexReport>)]) -> Option<String> {
-    let mut lines = vec![format!("Lensplane vertex compensation, {}", planes.target_words())];
-    for (eye, shown) in eyes {
-        if let Some(r) = shown.fresh() {
-            lines.push(format!(
-                "{}: {} at {} -> exact {} ; order {} ({})",
-                eye_words(*eye).1,
-                r.input,
-                fmt_number_mm(r),
-                r.exact,
-                r.ordered.ordered,
-                ladder_words(r.ladder)
-            ));
-            if let Some(t) = &r.toric {
-                lines.push(format!("   toric contact lens {}", t.ordered));
-            }
-        }
+    Card {
+        main_label: format!("Exact at {}", plane_words(r.to)),
+        main_value: form(r.exact_minus_cyl, r.exact_plus_cyl),
+        reason: format!("From {input} at {from}: {}.", r.reason),
+        rows,
+        warnings: r.warnings.iter().map(|w| w.message.clone()).collect(),
+        cross: Some((r.meridians_before, r.meridians_after)),
     }
-    lines.push("A starting point, not a prescription: confirm by over-refraction and acuity.".into());
-    (lines.len() > 2).then(|| lines.join("\n"))
 }
 
 #[component]
 pub fn VertexPanel() -> impl IntoView {
     let q = initial_query();
-    let right = EyeEntry::new(Eye::Right, q.get("r"));
-    let left = EyeEntry::new(Eye::Left, q.get("l"));
     let planes = Planes::new(q.get("from"), q.get("to"));
     let plus = RwSignal::new(q.get("form") == Some("plus"));
-    let right_parsed = Memo::new(move |_| right.parsed());
-    let left_parsed = Memo::new(move |_| left.parsed());
-    let report_for = move |parsed: Memo<_>| {
-        shown_memo(move || {
-            let p: Result<lensplane_core::Parsed<Rx>, lensplane_core::Error> = parsed.get()?;
-            Some(p.and_then(|p| {
-                let (from, to) = planes.both()?;
-                vertex_report(&VertexInput { rx: p.value, from, to, settings: OrderSettings::default() })
-            }))
-        })
-    };
-    let right_shown = report_for(right_parsed);
-    let left_shown = report_for(left_parsed);
+    let eyes = Eyes::new(&q, move |eye, rx| -> Result<EyeOutcome, lensplane_core::Error> {
+        let (from, to) = planes.both()?;
+        let report = vertex_report(&VertexInput { rx, from, to, settings: OrderSettings::default() })?;
+        let card = vertex_card(&report, plus.get());
+        let line = summary(eye, &rx, report.exact.to_string(), Some(report.ordered.ordered.to_string()));
+        Ok((card, line))
+    });
 
     let current = Memo::new(move |_| {
-        Query::default()
-            .with("r", &right.link_text())
-            .with("l", &left.link_text())
+        eyes.add_to(Query::default())
             .with("from", &planes.link_from())
             .with("to", &planes.link_to())
             .with("form", if plus.get() { "plus" } else { "" })
     });
     use_link_sync(Destination::Vertex, current, move |q: &Query| {
-        right.load(q.get("r"));
-        left.load(q.get("l"));
+        eyes.load(q);
         planes.load(q.get("from"), q.get("to"));
         plus.set(q.get("form") == Some("plus"));
     });
 
-    let announce = move || {
-        [(Eye::Right, right_shown.get()), (Eye::Left, left_shown.get())]
-            .into_iter()
-            .filter_map(|(eye, s)| s.fresh().map(|r| format!("{} eye: {}", eye_words(eye).0, r.exact)))
-            .collect::<Vec<_>>()
-            .join(". ")
-    };
-    let text = Signal::derive(move || {
-        summary_text(&planes, &[(Eye::Right, right_shown.get()), (Eye::Left, left_shown.get())])
-    });
-    let request = Callback::new(move |label: String| {
-        let eyes: Vec<EyeSummary> = [(Eye::Right, right_shown.get_untracked()), (Eye::Left, left_shown.get_untracked())]
-            .into_iter()
-            .filter_map(|(eye, s)| {
-                s.fresh().map(|r| EyeSummary {
-                    eye: eye_words(eye).1.into(),
-                    input: r.input.to_string(),
-                    result: r.exact.to_string(),
-                    order: Some(r.ordered.ordered.to_string()),
-                })
-            })
-            .collect();
-        (!eyes.is_empty()).then(|| SaveRequest { panel: Destination::Vertex, query: current.get_untracked(), label, eyes })
-    });
+    let text = Signal::derive(move || eyes.text(&format!("Lensplane vertex compensation to {}", planes.target_words())));
+    let request = Callback::new(move |label: String| eyes.save_request(Destination::Vertex, current.get_untracked(), label));
     let noop = Callback::new(|_| ());
 
     view! {
@@ -187,22 +99,59 @@ pub fn VertexPanel() -> impl IntoView {
         <div class="panel-grid">
             <div class="inputs">
                 <PlaneInputs planes=planes id_prefix="vertex" on_edit=noop/>
-                <EyeEntryForm entry=right parsed=right_parsed id_prefix="vertex" on_edit=noop/>
-                <EyeEntryForm entry=left parsed=left_parsed id_prefix="vertex" on_edit=noop/>
+                <EyeEntryForm entry=eyes.right parsed=eyes.right_parsed id_prefix="vertex" on_edit=noop/>
+                <EyeEntryForm entry=eyes.left parsed=eyes.left_parsed id_prefix="vertex" on_edit=noop/>
             </div>
             <div class="results">
                 <div class="form-switch" role="group" aria-label="Cylinder form">
-                    <button type="button" class="button toggle" aria-pressed=move || if plus.get() { "false" } else { "true" }
+                    <button type="button" class="button" aria-pressed=move || if plus.get() { "false" } else { "true" }
                         on:click=move |_| plus.set(false)>"Minus cylinder"</button>
-                    <button type="button" class="button toggle" aria-pressed=move || if plus.get() { "true" } else { "false" }
+                    <button type="button" class="button" aria-pressed=move || if plus.get() { "true" } else { "false" }
                         on:click=move |_| plus.set(true)>"Plus cylinder"</button>
                 </div>
-                <EyeResult eye=Eye::Right shown=right_shown plus=plus planes=planes/>
-                <EyeResult eye=Eye::Left shown=left_shown plus=plus planes=planes/>
-                <p class="visually-hidden" aria-live="polite">{announce}</p>
+                <EyeCard eye=Eye::Right shown=eyes.right_card/>
+                <EyeCard eye=Eye::Left shown=eyes.left_card/>
+                <p class="visually-hidden" aria-live="polite">{move || eyes.announcement()}</p>
                 <SaveBar id_prefix="vertex" text=text request=request/>
             </div>
         </div>
         <Cautions extra=vec!["Reference plane: the corneal vertex (thin-lens model)."]/>
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use lensplane_core::Rx;
+
+    fn report(rx: Rx) -> VertexReport {
+        vertex_report(&VertexInput { rx, from: VertexDistance::SPECTACLES, to: VertexDistance::CORNEA, settings: OrderSettings::default() })
+            .unwrap()
+    }
+
+    #[test]
+    fn card_shows_exact_in_either_cylinder_form() {
+        // C1 of shared/optics-notes.md [textbook]: −8.00 −2.00 ×180 at 12 mm → −7.30 −1.63 ×180 (plus form −8.93 +1.63 ×90).
+        let r = report(Rx::new(-8.0, -2.0, 180).unwrap());
+        assert_eq!(vertex_card(&r, false).main_value, "-7.30 -1.63 ×180");
+        assert_eq!(vertex_card(&r, true).main_value, "-8.93 +1.63 ×90");
+        assert_eq!(vertex_card(&r, false).main_label, "Exact at the cornea (contact lens)");
+    }
+
+    #[test]
+    fn card_offers_the_toric_choice_only_when_there_is_one() {
+        let toric = report(Rx::new(-8.0, -2.0, 180).unwrap());
+        assert!(vertex_card(&toric, false).rows.iter().any(|r| r.label == "Toric contact lens"));
+        // V1 [textbook]: −4.00 DS → −3.8168; spherical, so no toric row.
+        let sph = report(Rx::sphere_only(-4.0).unwrap());
+        let card = vertex_card(&sph, false);
+        assert_eq!(card.main_value, "-3.82 DS");
+        assert!(!card.rows.iter().any(|r| r.label == "Toric contact lens"));
+    }
+
+    #[test]
+    fn meridians_are_listed_with_their_directions() {
+        let cross = PowerCross::new(-7.0, -9.0, 180).unwrap();
+        assert_eq!(per_meridian(&cross), "180: -7.00 D, 90: -9.00 D");
     }
 }

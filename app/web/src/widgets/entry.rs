@@ -164,7 +164,7 @@ pub fn EyeEntryForm(
     on_edit: Callback<()>,
 ) -> impl IntoView {
     let (word, letter) = eye_words(entry.eye);
-    let lower = word.to_lowercase();
+    let lower = word.to_ascii_lowercase();
     let messages = move |slot: Slot| {
         Signal::derive(move || {
             let source = entry.source.get();

@@ -45,7 +45,7 @@ pub fn TextField(
         }
     };
     let sign_button = signed.then(|| {
-        let aria = format!("Change the sign of {}", name.to_lowercase());
+        let aria = format!("Change the sign of {}", name.to_ascii_lowercase());
         view! {
             <button type="button" class="field-button sign" aria-label=aria
                 on:click=move |_| { value.update(|v| *v = toggle_sign(v)); edited(); }>

@@ -1,6 +1,6 @@
 //! Messages at fields, warning lists and the standing cautions.
 
-use lensplane_core::{Error, Field, Notice, Warning};
+use lensplane_core::{Error, Notice};
 use leptos::prelude::*;
 
 /// Something to show under a field.
@@ -29,26 +29,6 @@ impl Message {
         match self {
             Message::Error(t) | Message::Notice(t) => t,
         }
-    }
-}
-
-/// Warnings from the core, shown beside the result they concern.
-#[component]
-pub fn WarningList(#[prop(into)] warnings: Signal<Vec<Warning>>, #[prop(optional)] only: Option<&'static [Field]>) -> impl IntoView {
-    let shown = move || {
-        warnings
-            .get()
-            .into_iter()
-            .filter(|w| only.is_none_or(|f| f.contains(&w.field)))
-            .map(|w| w.message)
-            .collect::<Vec<_>>()
-    };
-    view! {
-        <Show when=move || !shown().is_empty()>
-            <ul class="warnings">
-                {move || shown().into_iter().map(|m| view! { <li>{m}</li> }).collect_view()}
-            </ul>
-        </Show>
     }
 }
 

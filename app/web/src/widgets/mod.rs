@@ -1,6 +1,7 @@
 //! Building blocks the panels share: fields with ± and steppers, the eye
 //! entry, plane inputs, result pieces and the save/copy bar.
 
+mod card;
 mod cross;
 mod entry;
 mod field;
@@ -9,10 +10,11 @@ mod planes;
 mod save;
 mod shown;
 
+pub use card::{Card, EyeCard, Row};
 pub use cross::PowerCrossDiagram;
 pub use entry::{eye_words, EyeEntry, EyeEntryForm};
 pub use field::TextField;
-pub use messages::{Cautions, Message, WarningList};
+pub use messages::{Cautions, Message};
 pub use planes::{PlaneInputs, Planes};
 pub use save::SaveBar;
 pub use shown::{shown_memo, Shown, ShownNote};

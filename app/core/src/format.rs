@@ -96,6 +96,24 @@ pub fn fmt_dioptres(x: f64) -> String {
     format!("{} D", fmt_number(x))
 }
 
+/// A distance in millimetres or centimetres, without needless decimals:
+/// `12`, `13.5`, `40.64`.
+///
+/// ```
+/// use lensplane_core::fmt_length;
+/// assert_eq!(fmt_length(12.0), "12");
+/// assert_eq!(fmt_length(13.5), "13.5");
+/// assert_eq!(fmt_length(40.64), "40.64");
+/// ```
+pub fn fmt_length(x: f64) -> String {
+    let s = fmt_number(x);
+    if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    }
+}
+
 /// A power for prose (errors, reasons): two decimals, typographic minus.
 pub(crate) fn prose_power(x: f64) -> String {
     fmt_power(x).replace('-', "\u{2212}")

@@ -47,7 +47,7 @@
 //! | principal meridians | [`PowerCross`], [`Meridian`] | `meridians.rs` |
 //! | power vectors | [`PowerVector`] | `vectors.rs` |
 //! | parsing typed text | [`parse_rx`], [`Rx::from_fields`], [`parse_sphere_field`], [`parse_cylinder_field`], [`parse_axis_field`], [`parse_vertex_mm`], [`parse_reading_distance`], [`parse_add`], [`parse_age`] | `parse.rs`, `lex.rs` |
-//! | trade notation out | `Display for Rx`, [`fmt_power`], [`fmt_sphere`], [`fmt_number`], [`fmt_dioptres`] | `format.rs` |
+//! | trade notation out | `Display for Rx`, [`fmt_power`], [`fmt_sphere`], [`fmt_number`], [`fmt_dioptres`], [`fmt_length`] | `format.rs` |
 //! | vertex | [`compensate`], [`compensate_power`], [`effective_power`] | `vertex.rs` |
 //! | rounding, ladders, residuals | [`TieRule`], [`Ladder`], [`order_lens`], [`OrderSettings`] | `rounding.rs` |
 //! | toric contact lenses | [`choose_toric`], [`ToricSettings`] | `toric.rs` |
@@ -162,7 +162,7 @@ pub use equivalent::{
     SubstituteSettings, Verdict,
 };
 pub use error::{Error, Field};
-pub use format::{fmt_dioptres, fmt_number, fmt_power, fmt_sphere};
+pub use format::{fmt_dioptres, fmt_length, fmt_number, fmt_power, fmt_sphere};
 pub use meridians::{Meridian, PowerCross};
 pub use near::{near_figures, NearFigures, NearGeometry};
 pub use parse::{

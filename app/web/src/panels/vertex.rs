@@ -6,7 +6,7 @@ use crate::link::{Destination, Query};
 use crate::sync::{initial_query, use_link_sync};
 use crate::widgets::{Card, Cautions, EyeCard, EyeEntryForm, PlaneInputs, Planes, Row, SaveBar};
 use lensplane_core::{
-    fmt_dioptres, fmt_number, vertex_report, Eye, LadderKind, OrderSettings, PowerCross, VertexDistance, VertexInput,
+    fmt_dioptres, fmt_length, vertex_report, Eye, LadderKind, OrderSettings, PowerCross, VertexDistance, VertexInput,
     VertexReport,
 };
 use leptos::prelude::*;
@@ -20,7 +20,7 @@ fn ladder_words(kind: LadderKind) -> &'static str {
 
 /// "the cornea (contact lens)" or "14 mm".
 pub fn plane_words(d: VertexDistance) -> String {
-    if d.is_cornea() { "the cornea (contact lens)".into() } else { format!("{} mm", fmt_number(d.mm())) }
+    if d.is_cornea() { "the cornea (contact lens)".into() } else { format!("{} mm", fmt_length(d.mm())) }
 }
 
 /// "180: +0.06 D, 90: -0.07 D".

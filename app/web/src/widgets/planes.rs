@@ -63,7 +63,7 @@ impl Planes {
     pub fn target_words(&self) -> String {
         match self.to_parsed() {
             Ok(p) if p.value.is_cornea() => "at the cornea (contact lens)".into(),
-            Ok(_) => format!("at {} mm", self.to_frame.get().trim()),
+            Ok(p) => format!("at {} mm", lensplane_core::fmt_length(p.value.mm())),
             Err(_) => "at the target plane".into(),
         }
     }

@@ -185,11 +185,11 @@ pub fn assess_substitute(rx: &Rx, settings: &SubstituteSettings) -> SubstituteAs
     let cyl_ok = cyl <= limit + 1e-9;
     let ratio_ok = ratio.is_some_and(|r| r <= settings.max_ratio + 1e-9);
     let ratio_words = |r: Option<f64>| match r {
-        Some(r) if r > 0.0 => format!("1:{:.1}", 1.0 / r),
+        Some(r) if r > 0.0 => format!("1:{}", crate::format::fmt_length(1.0 / r)),
         _ => "undefined (plano sphere)".to_string(),
     };
     let limit_ratio = if settings.max_ratio > 0.0 {
-        format!("1:{:.1}", 1.0 / settings.max_ratio)
+        format!("1:{}", crate::format::fmt_length(1.0 / settings.max_ratio))
     } else {
         "0".into()
     };

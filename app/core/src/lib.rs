@@ -52,6 +52,7 @@
 //! | rounding, ladders, residuals | [`TieRule`], [`Ladder`], [`order_lens`], [`OrderSettings`] | `rounding.rs` |
 //! | toric contact lenses | [`choose_toric`], [`ToricSettings`] | `toric.rs` |
 //! | spherical equivalent, substitutes | [`spherical_equivalent_at`], [`assess_substitute`] | `equivalent.rs` |
+//! | typed substitute limits | [`parse_cylinder_limit`], [`parse_ratio_limit`], [`SubstituteSettings::from_texts`] | `settings_text.rs` |
 //! | near | [`near_figures`], [`NearGeometry`] | `near.rs` |
 //! | amplitude by age | [`hofstetter`], [`tentative_add`] | `amplitude.rs` |
 //! | warnings, cautions | [`Warning`], [`rx_warnings`], [`vertex_warnings`], [`CAUTIONS`] | `warnings.rs` |
@@ -149,6 +150,7 @@ mod report_near;
 mod report_vertex;
 mod rounding;
 mod rx;
+mod settings_text;
 mod toric;
 mod units;
 mod vectors;
@@ -177,6 +179,7 @@ pub use rounding::{
     OrderSettings, OrderedLens, StockRange, TieRule,
 };
 pub use rx::Rx;
+pub use settings_text::{parse_cylinder_limit, parse_ratio_limit};
 pub use toric::{choose_toric, round_axis, ToricChoice, ToricSettings};
 pub use units::{Add, Age, Eye, EyePair, Measured, ReadingDistance, VertexDistance};
 pub use vectors::PowerVector;

@@ -139,7 +139,7 @@ fn d6_substitute_verdicts() {
     assert_eq!(a.verdict, Verdict::Borderline);
     assert_eq!(
         a.reason,
-        "with-the-rule cylinder 0.50 D is within the 0.75 D limit, but cylinder:sphere 1:2.0 is over 1:4.0: a spherical lens may do; check acuity with it"
+        "with-the-rule cylinder 0.50 D is within the 0.75 D limit, but cylinder:sphere 1:2 is over 1:4: a spherical lens may do; check acuity with it"
     );
     // Same 0.75 cylinder, oblique: lower limit (0.50) → only the ratio is met.
     let a = assess_substitute(&Rx::new(-4.0, -0.75, 45).unwrap(), &s);

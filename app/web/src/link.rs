@@ -51,7 +51,7 @@ impl Destination {
     pub fn keys(self) -> &'static [&'static str] {
         match self {
             Destination::Vertex => &["r", "l", "from", "to", "form"],
-            Destination::Equivalent => &["r", "l", "from", "to", "cylmax", "ratio"],
+            Destination::Equivalent => &["r", "l", "from", "to", "cylmax", "oblmax", "ratio"],
             Destination::Near => &["r", "l", "add", "from", "to", "reading", "unit", "measured", "age"],
             Destination::History => &["q", "panel"],
         }

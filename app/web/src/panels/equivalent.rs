@@ -121,9 +121,9 @@ pub fn EquivalentPanel() -> impl IntoView {
                     <summary>"Substitute limits"</summary>
                     <p class="field-msg hint">"Common practice, not law: adjust to your own practice."</p>
                     <TextField id="equivalent-cylmax" label="Largest cylinder, with the rule" value=cyl_max
-                        messages=setting_msgs(0) unit="D" step=lensplane_core::StepKind::Cylinder/>
+                        messages=setting_msgs(0) unit="D"/>
                     <TextField id="equivalent-oblmax" label="Largest cylinder, oblique or against the rule" value=obl_max
-                        messages=setting_msgs(1) unit="D" step=lensplane_core::StepKind::Cylinder/>
+                        messages=setting_msgs(1) unit="D"/>
                     <TextField id="equivalent-ratio" label="Largest cylinder : sphere" value=ratio
                         messages=setting_msgs(2) inputmode="text" placeholder="1:4"/>
                 </details>

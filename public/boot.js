@@ -3,6 +3,21 @@
 // Kept as a separate file: the Content-Security-Policy allows no inline script.
 import init from './__APP_JS__';
 
+// The remembered theme, before the first paint (the app keeps it in step).
+try {
+  const theme = localStorage.getItem('lensplane.theme');
+  if (theme === 'light' || theme === 'dark') document.documentElement.dataset.theme = theme;
+} catch (_) { /* storage unavailable: follow the system */ }
+
+// Escape closes what is open: a settings group, or the update offer.
+document.addEventListener('keydown', (event) => {
+  if (event.key !== 'Escape') return;
+  const open = document.activeElement && document.activeElement.closest('details[open]');
+  if (open) { open.open = false; open.querySelector('summary')?.focus(); return; }
+  const offer = document.getElementById('update-offer');
+  if (offer && !offer.hidden) offer.hidden = true;
+});
+
 const root = new URL('./', import.meta.url);
 // The router reads this, so the app works at / and under any sub-path.
 globalThis.LENSPLANE_ROOT = root.pathname;

@@ -9,6 +9,7 @@ pub mod history;
 mod panels;
 mod shell;
 mod sync;
+mod theme;
 mod widgets;
 
 use leptos::prelude::*;

@@ -26,10 +26,16 @@ pub enum Destination {
     Equivalent,
     Near,
     History,
+    /// What the tool computes, the model, the cautions, the version.
+    About,
 }
 
 impl Destination {
-    pub const ALL: [Destination; 4] = [Destination::Vertex, Destination::Equivalent, Destination::Near, Destination::History];
+    /// Every destination.
+    pub const ALL: [Destination; 5] =
+        [Destination::Vertex, Destination::Equivalent, Destination::Near, Destination::History, Destination::About];
+    /// The ones in the main navigation.
+    pub const NAV: [Destination; 4] = [Destination::Vertex, Destination::Equivalent, Destination::Near, Destination::History];
 
     /// The route, relative to where the app is deployed.
     pub fn path(self) -> &'static str {
@@ -38,6 +44,7 @@ impl Destination {
             Destination::Equivalent => "/equivalent",
             Destination::Near => "/near",
             Destination::History => "/history",
+            Destination::About => "/about",
         }
     }
 
@@ -54,6 +61,7 @@ impl Destination {
             Destination::Equivalent => &["r", "l", "from", "to", "cylmax", "oblmax", "ratio"],
             Destination::Near => &["r", "l", "add", "from", "to", "reading", "unit", "measured", "age"],
             Destination::History => &["q", "panel"],
+            Destination::About => &[],
         }
     }
 }

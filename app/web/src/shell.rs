@@ -3,8 +3,9 @@
 
 use crate::history::History;
 use crate::link::{Destination, Query};
-use crate::panels::{EquivalentPanel, HistoryPanel, NearPanel, VertexPanel};
+use crate::panels::{AboutPanel, EquivalentPanel, HistoryPanel, NearPanel, VertexPanel};
 use crate::sync::{carried_href, Base, Carry};
+use crate::theme::ThemeButton;
 use leptos::prelude::*;
 use leptos_router::components::{Redirect, Route, Router, Routes, A};
 use leptos_router::path;
@@ -34,6 +35,7 @@ fn nav_label(dest: Destination) -> &'static str {
         Destination::Equivalent => "Sph. equivalent",
         Destination::Near => "Near",
         Destination::History => "History",
+        Destination::About => "About",
     }
 }
 
@@ -62,8 +64,9 @@ pub fn App() -> impl IntoView {
     let carry = RwSignal::new(Query::default());
     provide_context(Carry(carry));
     let link_base = base.clone();
+    let about_base = base.clone();
     let links = move || {
-        Destination::ALL
+        Destination::NAV
             .into_iter()
             .map(|d| {
                 // The router does not add its base to absolute links.
@@ -81,7 +84,11 @@ pub fn App() -> impl IntoView {
                     <img src="icons/icon.svg" alt="" width="28" height="28"/>
                     "Lensplane"
                 </span>
-                <ConnectionBadge/>
+                <span class="masthead-tools">
+                    <ConnectionBadge/>
+                    <ThemeButton/>
+                    <A href=format!("{about_base}/about")>"About"</A>
+                </span>
             </header>
             <nav class="destinations" aria-label="Calculators">{links}</nav>
             <main id="main" tabindex="-1">
@@ -91,6 +98,7 @@ pub fn App() -> impl IntoView {
                     <Route path=path!("/equivalent") view=EquivalentPanel/>
                     <Route path=path!("/near") view=NearPanel/>
                     <Route path=path!("/history") view=HistoryPanel/>
+                    <Route path=path!("/about") view=AboutPanel/>
                 </Routes>
             </main>
             <footer class="colophon">

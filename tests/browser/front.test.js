@@ -104,7 +104,7 @@ test('the theme follows the system until chosen, and the choice is remembered', 
   await waitForApp(p);
   const bg = () => p.evaluate(() => getComputedStyle(document.body).backgroundColor);
   const light = await bg();
-  await p.getByRole('button', { name: 'Theme: as the system' }).click();
+  await p.getByRole('button', { name: 'Theme: system' }).click();
   assert.equal(await p.evaluate(() => document.documentElement.dataset.theme), 'dark');
   assert.notEqual(await bg(), light);
   await p.reload();

@@ -42,7 +42,7 @@ impl Theme {
 
     pub fn label(self) -> &'static str {
         match self {
-            Theme::System => "Theme: as the system",
+            Theme::System => "Theme: system",
             Theme::Light => "Theme: light",
             Theme::Dark => "Theme: dark",
         }

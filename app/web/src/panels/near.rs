@@ -11,7 +11,7 @@ use crate::sync::{initial_query, use_link_sync};
 use crate::widgets::{Card, Cautions, EyeCard, EyeEntryForm, Message, PlaneInputs, Planes, Row, SaveBar, TextField};
 use lensplane_core::{
     fmt_dioptres, fmt_length, fmt_number, fmt_power, near_report, parse_add, parse_age, parse_reading_distance,
-    parse_reading_inches, Add, Age, Error, Eye, Measured, NearFigures, NearInput, NearReport, OrderSettings, Parsed,
+    parse_reading_inches, Add, Age, Error, Eye, Measured, NearFigures, NearInput, NearReport, Notice, OrderSettings, Parsed,
     ReadingDistance, StepKind, TentativeAdd, WarningKind,
 };
 use leptos::prelude::*;
@@ -38,9 +38,10 @@ fn optional<T>(text: String, parse: fn(&str) -> Result<Parsed<T>, Error>) -> Opt
     (!text.trim().is_empty()).then(|| parse(&text))
 }
 
-fn messages<T>(parsed: Option<Result<Parsed<T>, Error>>) -> Vec<Message> {
-    match parsed {
-        Some(Ok(p)) => p.notices.iter().map(Message::notice).collect(),
+/// A field's messages: its notices, or its error (`None`: left empty).
+fn messages(notices: Option<Result<Vec<Notice>, Error>>) -> Vec<Message> {
+    match notices {
+        Some(Ok(n)) => n.iter().map(Message::notice).collect(),
         Some(Err(e)) => vec![Message::error(&e)],
         None => vec![],
     }
@@ -166,7 +167,7 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
             "Orderable add",
             fmt_power(r.add_at_target_rounded),
             format!(
-                "exact {}, {} against the spectacle add {add}; with the orderable add the eye accommodates {}",
+                "exact {}; change from the spectacle add {add}: {}; with the orderable add the eye accommodates {} at this distance",
                 fmt_power(r.add_at_target),
                 fmt_power(r.add_change),
                 fmt_dioptres(e.accommodation_target_with_rounded_add)
@@ -269,16 +270,16 @@ pub fn NearPanel() -> impl IntoView {
     let text = Signal::derive(move || eyes.text(&format!("Lensplane near vision: equivalent add {}", planes.target_words())));
     let request = Callback::new(move |label: String| eyes.save_request(Destination::Near, current.get_untracked(), label));
     let noop = Callback::new(|_| ());
-    let add_msgs = Signal::derive(move || messages(near.add_parsed()));
-    let reading_msgs = Signal::derive(move || messages(near.reading_parsed()));
-    let age_msgs = Signal::derive(move || messages(near.age_parsed()));
+    let add_msgs = Signal::derive(move || messages(near.add_parsed().map(|r| r.map(|p| p.notices))));
+    let reading_msgs = Signal::derive(move || messages(near.reading_parsed().map(|r| r.map(|p| p.notices))));
+    let age_msgs = Signal::derive(move || messages(near.age_parsed().map(|r| r.map(|p| p.notices))));
 
     view! {
         <h1>"Near add"</h1>
         <p class="lede">"What a reading distance asks of the eye through the spectacles, with their add, and with contact lenses or a frame at another distance; and the add that keeps the same near effect there. Worked by the vergence chain, per principal meridian."</p>
         <div class="panel-grid">
             <div class="inputs">
-                <PlaneInputs planes=planes id_prefix="near" on_edit=noop from_label="Spectacles worn at"/>
+                <PlaneInputs planes=planes id_prefix="near" on_edit=noop/>
                 <fieldset class="near-task">
                     <legend>"Near task"</legend>
                     <TextField id="near-add" label="Spectacle add" value=near.add messages=add_msgs

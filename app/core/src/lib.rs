@@ -167,8 +167,8 @@ pub use meridians::{Meridian, PowerCross};
 pub use near::{near_figures, NearFigures, NearGeometry};
 pub use parse::{
     parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance,
-    parse_reading_inches, parse_rx,
-    parse_sphere_field, parse_vertex_mm, Notice, NoticeKind, Parsed,
+    parse_reading_inches, parse_rx, parse_sphere_field, parse_vertex_mm, Notice, NoticeKind,
+    Parsed,
 };
 pub use report_equivalent::{equivalent_report, EquivalentInput, EquivalentReport};
 pub use report_near::{near_report, AmplitudeReport, NearInput, NearReport};

@@ -4,7 +4,8 @@
 //! arithmetic; a text that does not parse is left alone.
 
 use crate::format::{fmt_power, fmt_sphere};
-use crate::parse::{parse_axis_field, parse_cylinder_field, parse_sphere_field};
+use crate::limits::ADD_MAX;
+use crate::parse::{parse_add, parse_axis_field, parse_cylinder_field, parse_sphere_field};
 use crate::rounding::{round_to_step, TieRule};
 
 /// What a stepper steps.
@@ -14,6 +15,8 @@ pub enum StepKind {
     Sphere,
     /// A cylinder or an add: quarter dioptres, ±10 D.
     Cylinder,
+    /// An add: quarter dioptres from 0.00 to +4.00 (never minus).
+    Add,
     /// An axis: this many degrees, going round 180 → 5 (a deliberate press,
     /// never a typed value wrapped silently).
     Axis(u16),
@@ -63,6 +66,11 @@ pub fn toggle_sign(text: &str) -> String {
 /// assert_eq!(step_text("180", StepKind::Axis(5), true).as_deref(), Some("5"));
 /// assert_eq!(step_text("", StepKind::Axis(5), false).as_deref(), Some("175"));
 /// assert_eq!(step_text("2.00", StepKind::Sphere, true), None); // no sign: not guessed
+/// assert_eq!(step_text("2.5", StepKind::Add, true).as_deref(), Some("+2.75"));
+/// assert_eq!(step_text("", StepKind::Add, true).as_deref(), Some("+0.25"));
+/// assert_eq!(step_text("+0.25", StepKind::Add, false).as_deref(), Some("0.00"));
+/// assert_eq!(step_text("0.00", StepKind::Add, false), None); // an add is never minus
+/// assert_eq!(step_text("+4.00", StepKind::Add, true), None);
 /// ```
 pub fn step_text(text: &str, kind: StepKind, up: bool) -> Option<String> {
     match kind {
@@ -79,11 +87,13 @@ pub fn step_text(text: &str, kind: StepKind, up: bool) -> Option<String> {
             let next = if next > 180 { next - 180 } else if next == 0 { 180 } else { next };
             Some(next.to_string())
         }
-        StepKind::Sphere | StepKind::Cylinder => {
+        StepKind::Sphere | StepKind::Cylinder | StepKind::Add => {
             let (value, limit) = if text.trim().is_empty() {
                 (0.0, 30.0)
             } else if kind == StepKind::Sphere {
                 (parse_sphere_field(text).ok()?.value, 30.0)
+            } else if kind == StepKind::Add {
+                (parse_add(text).ok()?.value.dioptres(), ADD_MAX)
             } else {
                 (parse_cylinder_field(text).ok()?.value, 10.0)
             };
@@ -95,7 +105,7 @@ pub fn step_text(text: &str, kind: StepKind, up: bool) -> Option<String> {
                 (true, _, _) => snapped + 0.25,
                 (false, _, _) => snapped - 0.25,
             };
-            if next.abs() > limit + 1e-9 {
+            if next.abs() > limit + 1e-9 || (kind == StepKind::Add && !(0.0..=ADD_MAX + 1e-9).contains(&next)) {
                 return None;
             }
             Some(if kind == StepKind::Sphere { fmt_sphere(next) } else { fmt_power(next) })

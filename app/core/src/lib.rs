@@ -46,7 +46,7 @@
 //! | prescription, transposition | [`Rx`] | `rx.rs` |
 //! | principal meridians | [`PowerCross`], [`Meridian`] | `meridians.rs` |
 //! | power vectors | [`PowerVector`] | `vectors.rs` |
-//! | parsing typed text | [`parse_rx`], [`Rx::from_fields`], [`parse_sphere_field`], [`parse_cylinder_field`], [`parse_axis_field`], [`parse_vertex_mm`], [`parse_reading_distance`], [`parse_add`], [`parse_age`] | `parse.rs`, `lex.rs` |
+//! | parsing typed text | [`parse_rx`], [`Rx::from_fields`], [`parse_sphere_field`], [`parse_cylinder_field`], [`parse_axis_field`], [`parse_vertex_mm`], [`parse_reading_distance`], [`parse_reading_inches`], [`parse_add`], [`parse_age`] | `parse.rs`, `lex.rs` |
 //! | trade notation out | `Display for Rx`, [`fmt_power`], [`fmt_sphere`], [`fmt_number`], [`fmt_dioptres`], [`fmt_length`] | `format.rs` |
 //! | vertex | [`compensate`], [`compensate_power`], [`effective_power`] | `vertex.rs` |
 //! | rounding, ladders, residuals | [`TieRule`], [`Ladder`], [`order_lens`], [`OrderSettings`] | `rounding.rs` |
@@ -168,8 +168,9 @@ pub use format::{fmt_dioptres, fmt_length, fmt_number, fmt_power, fmt_sphere};
 pub use meridians::{Meridian, PowerCross};
 pub use near::{near_figures, NearFigures, NearGeometry};
 pub use parse::{
-    parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance, parse_rx,
-    parse_sphere_field, parse_vertex_mm, Notice, NoticeKind, Parsed,
+    parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance,
+    parse_reading_inches, parse_rx, parse_sphere_field, parse_vertex_mm, Notice, NoticeKind,
+    Parsed,
 };
 pub use report_equivalent::{equivalent_report, EquivalentInput, EquivalentReport};
 pub use report_near::{near_report, AmplitudeReport, NearInput, NearReport};

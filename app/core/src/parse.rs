@@ -711,6 +711,25 @@ pub fn parse_vertex_mm(text: &str) -> Result<Parsed<VertexDistance>, Error> {
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
 pub fn parse_reading_distance(text: &str) -> Result<Parsed<ReadingDistance>, Error> {
+    reading_distance(text, false)
+}
+
+/// Parse a reading distance when the user has chosen inches: a bare number
+/// is inches (`16` is 40.64 cm); a typed unit still wins (`40 cm`).
+///
+/// ```
+/// use lensplane_core::parse_reading_inches;
+/// assert!((parse_reading_inches("16")?.value.cm() - 40.64).abs() < 1e-9);
+/// assert_eq!(parse_reading_inches("40 cm")?.value.cm(), 40.0);
+/// assert_eq!(parse_reading_inches("3").unwrap_err().to_string(),
+///            "reading distance 7.62 cm is outside 10–100 cm");
+/// # Ok::<(), lensplane_core::Error>(())
+/// ```
+pub fn parse_reading_inches(text: &str) -> Result<Parsed<ReadingDistance>, Error> {
+    reading_distance(text, true)
+}
+
+fn reading_distance(text: &str, bare_inches: bool) -> Result<Parsed<ReadingDistance>, Error> {
     let field = Field::ReadingDistance;
     let toks = lex(text, field)?;
     let (t, n, unit) = single_number(&toks, field)?;
@@ -720,6 +739,7 @@ pub fn parse_reading_distance(text: &str) -> Result<Parsed<ReadingDistance>, Err
     let m = n.magnitude();
     let mut notices = vec![];
     let cm = match (unit.map(|u| &u.tok), word(unit)) {
+        (None, _) if bare_inches => m * CM_PER_INCH,
         (None, _) => {
             if (20.0..=READING_CM.1).contains(&m) {
                 notices.push(notice(

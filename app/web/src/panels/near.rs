@@ -1,8 +1,399 @@
-//! The Near add destination.
+//! The near destination: what the reading distance asks of the eye through
+//! the spectacles, with the add, and with the lens moved to the cornea (or
+//! another vertex distance); the add that gives the same near effect there;
+//! and, with an age, Hofstetter's amplitudes and tentative adds. Every
+//! figure comes from the core's `near_report`.
 
+use super::common::{summary, EyeOutcome, Eyes};
+use super::vertex::plane_words;
+use crate::link::{Destination, Query};
+use crate::sync::{initial_query, use_link_sync};
+use crate::widgets::{Card, Cautions, EyeCard, EyeEntryForm, Message, PlaneInputs, Planes, Row, SaveBar, TextField};
+use lensplane_core::{
+    fmt_dioptres, fmt_length, fmt_number, fmt_power, near_report, parse_add, parse_age, parse_reading_distance,
+    parse_reading_inches, Add, Age, Error, Eye, Measured, NearFigures, NearInput, NearReport, Notice, OrderSettings, Parsed,
+    ReadingDistance, StepKind, TentativeAdd, WarningKind,
+};
 use leptos::prelude::*;
+
+/// The near inputs both eyes share, as typed.
+#[derive(Clone, Copy)]
+struct NearFields {
+    add: RwSignal<String>,
+    reading: RwSignal<String>,
+    inches: RwSignal<bool>,
+    from_eye: RwSignal<bool>,
+    age: RwSignal<String>,
+}
+
+/// What the near panel needs besides the prescription and the planes.
+struct NearValues {
+    add: Add,
+    reading: ReadingDistance,
+    measured: Measured,
+    age: Option<Age>,
+}
+
+fn optional<T>(text: String, parse: fn(&str) -> Result<Parsed<T>, Error>) -> Option<Result<Parsed<T>, Error>> {
+    (!text.trim().is_empty()).then(|| parse(&text))
+}
+
+/// A field's messages: its notices, or its error (`None`: left empty).
+fn messages(notices: Option<Result<Vec<Notice>, Error>>) -> Vec<Message> {
+    match notices {
+        Some(Ok(n)) => n.iter().map(Message::notice).collect(),
+        Some(Err(e)) => vec![Message::error(&e)],
+        None => vec![],
+    }
+}
+
+impl NearFields {
+    fn new(q: &Query) -> NearFields {
+        let s = || RwSignal::new(String::new());
+        let fields = NearFields { add: s(), reading: s(), inches: RwSignal::new(false), from_eye: RwSignal::new(false), age: s() };
+        fields.load(q);
+        fields
+    }
+
+    /// From link values; a missing reading distance is 40 cm (16 in).
+    fn load(&self, q: &Query) {
+        let inches = q.get("unit").is_some_and(|u| u.trim().eq_ignore_ascii_case("in"));
+        self.inches.set(inches);
+        self.from_eye.set(q.get("measured").is_some_and(|m| m.trim().eq_ignore_ascii_case("eye")));
+        self.add.set(q.get("add").unwrap_or("").to_string());
+        self.reading.set(q.get("reading").unwrap_or(if inches { "16" } else { "40" }).to_string());
+        self.age.set(q.get("age").unwrap_or("").to_string());
+    }
+
+    fn add_to(&self, q: Query) -> Query {
+        q.with("add", self.add.get().trim())
+            .with("reading", self.reading.get().trim())
+            .with("unit", if self.inches.get() { "in" } else { "" })
+            .with("measured", if self.from_eye.get() { "eye" } else { "lens" })
+            .with("age", self.age.get().trim())
+    }
+
+    fn add_parsed(&self) -> Option<Result<Parsed<Add>, Error>> {
+        optional(self.add.get(), parse_add)
+    }
+
+    fn reading_parsed(&self) -> Option<Result<Parsed<ReadingDistance>, Error>> {
+        Some(if self.inches.get() { parse_reading_inches(&self.reading.get()) } else { parse_reading_distance(&self.reading.get()) })
+    }
+
+    fn age_parsed(&self) -> Option<Result<Parsed<Age>, Error>> {
+        optional(self.age.get(), parse_age)
+    }
+
+    /// All of them, or the first error. An empty add is no add; an empty age is no age.
+    fn values(&self) -> Result<NearValues, Error> {
+        let reading = self.reading_parsed().unwrap_or_else(|| parse_reading_distance(""))?.value;
+        Ok(NearValues {
+            add: self.add_parsed().transpose()?.map_or(Add::NONE, |p| p.value),
+            reading,
+            measured: if self.from_eye.get() { Measured::FromEye } else { Measured::FromLens },
+            age: self.age_parsed().transpose()?.map(|p| p.value),
+        })
+    }
+}
+
+/// "40 cm" or "16 in (40.64 cm)".
+fn reading_words(r: ReadingDistance, inches: bool) -> String {
+    if inches {
+        format!("{} in ({} cm)", fmt_length(r.inches()), fmt_length(r.cm()))
+    } else {
+        format!("{} cm", fmt_length(r.cm()))
+    }
+}
+
+/// One line of per-meridian (or summary) figures.
+fn figures_line(f: &NearFigures, at_target: &str) -> String {
+    format!(
+        "accommodation through the spectacles {} without the add, {} with it; {at_target} {}; relief at the eye {}; equivalent add {}",
+        fmt_dioptres(f.accommodation_spectacles),
+        fmt_dioptres(f.accommodation_spectacles_with_add),
+        fmt_dioptres(f.accommodation_target),
+        fmt_dioptres(f.relief_at_eye),
+        fmt_power(f.add_at_target)
+    )
+}
+
+fn tentative_row(label: &str, t: &TentativeAdd, entered: f64) -> Row {
+    Row::new(
+        label,
+        fmt_power(t.half_reserve),
+        format!(
+            "half in reserve {} (orderable {}); one-third in reserve {} (orderable {}); add entered {}",
+            fmt_power(t.half_reserve),
+            fmt_power(t.half_reserve_rounded),
+            fmt_power(t.third_reserve),
+            fmt_power(t.third_reserve_rounded),
+            fmt_power(entered)
+        ),
+    )
+}
+
+/// Warnings shown once for the panel (in the cautions), not in every card.
+fn panel_wide(kind: WarningKind) -> bool {
+    matches!(kind, WarningKind::MultifocalLabels | WarningKind::TrialAtDistance | WarningKind::PopulationEstimate)
+}
+
+/// The near result of one eye as a card.
+pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
+    let target = plane_words(input.target);
+    let in_target = if input.target.is_cornea() { "in contact lenses".to_string() } else { format!("with the lens at {target}") };
+    let e = &r.equivalent;
+    let from = if input.measured == Measured::FromEye { "the eye" } else { "the spectacle plane" };
+    let add = fmt_power(r.add);
+    let mut rows = vec![];
+    if r.meridians.len() > 1 {
+        rows.push(Row::new(
+            "Spherical equivalent",
+            fmt_power(e.distance_power),
+            "the figures below are for it; each principal meridian follows",
+        ));
+    }
+    rows.extend([
+        Row::new(
+            format!("Demand at {}", reading_words(input.reading, inches)),
+            fmt_dioptres(r.demand),
+            format!("measured from {from}; spectacle accommodation (at the lens plane) {}", fmt_dioptres(r.spectacle_accommodation)),
+        ),
+        Row::new("Accommodation through the spectacles, no add", fmt_dioptres(e.accommodation_spectacles), "ocular accommodation, at the corneal vertex"),
+        Row::new(format!("Accommodation through the spectacles with the add {add}"), fmt_dioptres(e.accommodation_spectacles_with_add), ""),
+        Row::new(format!("Accommodation {in_target}, no add"), fmt_dioptres(e.accommodation_target), ""),
+        Row::new("Relief the spectacle add gives at the eye", fmt_dioptres(e.relief_at_eye), ""),
+        Row::new(
+            "Orderable add",
+            fmt_power(r.add_at_target_rounded),
+            format!(
+                "exact {}; change from the spectacle add {add}: {}; with the orderable add the eye accommodates {} at this distance",
+                fmt_power(r.add_at_target),
+                fmt_power(r.add_change),
+                fmt_dioptres(e.accommodation_target_with_rounded_add)
+            ),
+        ),
+        Row::new(
+            format!("Near prescription at {target}, exact"),
+            r.near_at_target.to_string(),
+            format!("distance prescription there {}", r.distance_at_target),
+        ),
+        Row::new(
+            "Near prescription, orderable",
+            r.near_at_target_ordered.to_string(),
+            format!("orderable distance {} with the add {}", r.distance_at_target_ordered, fmt_power(r.add_at_target_rounded)),
+        ),
+    ]);
+    if r.meridians.len() > 1 {
+        for m in &r.meridians {
+            rows.push(Row::new(
+                format!("Meridian {}°", m.meridian.unwrap_or(0)),
+                fmt_power(m.distance_power),
+                figures_line(m, &in_target),
+            ));
+        }
+    }
+    if let Some(a) = &r.amplitude {
+        let amp = a.amplitude;
+        rows.push(Row::new(
+            format!("Amplitude at age {} (Hofstetter)", a.age.years()),
+            format!("{} / {} / {} D", fmt_number(amp.minimum), fmt_number(amp.average), fmt_number(amp.maximum)),
+            "minimum / average / maximum: a population estimate",
+        ));
+        rows.push(tentative_row("Tentative add, minimum amplitude", &a.tentative_from_minimum, r.add));
+        rows.push(tentative_row("Tentative add, average amplitude", &a.tentative_from_average, r.add));
+    }
+    Card {
+        main_label: format!("Equivalent add at {target}"),
+        main_value: fmt_power(r.add_at_target),
+        reason: format!("{} with add {add}: {}.", r.input, r.summary),
+        rows,
+        warnings: r.warnings.iter().filter(|w| !panel_wide(w.kind)).map(|w| w.message.clone()).collect(),
+        cross: None,
+    }
+}
+
+/// Two radio buttons for a yes/no choice: `first` when `signal` is false,
+/// `second` when it is true.
+fn choice_pair(group: &'static str, legend: &'static str, first: &'static str, second: &'static str, signal: RwSignal<bool>) -> impl IntoView {
+    let radio = move |value: bool, text: &'static str| {
+        view! {
+            <label class="choice">
+                <input type="radio" name=group prop:checked=move || signal.get() == value on:change=move |_| signal.set(value)/>
+                {text}
+            </label>
+        }
+    };
+    view! {
+        <div class="target" role="radiogroup" aria-labelledby=format!("{group}-label")>
+            <span id=format!("{group}-label") class="group-label">{legend}</span>
+            {radio(false, first)}
+            {radio(true, second)}
+        </div>
+    }
+}
 
 #[component]
 pub fn NearPanel() -> impl IntoView {
-    view! { <h1>"Near add"</h1> }
+    let q = initial_query();
+    let planes = Planes::new(q.get("from"), q.get("to"));
+    let near = NearFields::new(&q);
+    let eyes = Eyes::new(&q, move |eye, rx| -> Result<EyeOutcome, Error> {
+        let (spectacle_vertex, target) = planes.both()?;
+        let v = near.values()?;
+        let input = NearInput {
+            rx,
+            add: v.add,
+            spectacle_vertex,
+            reading: v.reading,
+            measured: v.measured,
+            target,
+            age: v.age,
+            settings: OrderSettings::default(),
+        };
+        let report = near_report(&input)?;
+        let card = near_card(&input, &report, near.inches.get());
+        let result = format!("add {} at {} (near {})", fmt_power(report.add_at_target), plane_words(target), report.near_at_target);
+        let order = format!("{} add {}", report.distance_at_target_ordered, fmt_power(report.add_at_target_rounded));
+        Ok((card, summary(eye, &rx, result, Some(order))))
+    });
+
+    let current = Memo::new(move |_| {
+        near.add_to(eyes.add_to(Query::default()).with("from", &planes.link_from()).with("to", &planes.link_to()))
+    });
+    use_link_sync(Destination::Near, current, move |q: &Query| {
+        eyes.load(q);
+        planes.load(q.get("from"), q.get("to"));
+        near.load(q);
+    });
+
+    let text = Signal::derive(move || eyes.text(&format!("Lensplane near vision: equivalent add {}", planes.target_words())));
+    let request = Callback::new(move |label: String| eyes.save_request(Destination::Near, current.get_untracked(), label));
+    let noop = Callback::new(|_| ());
+    let add_msgs = Signal::derive(move || messages(near.add_parsed().map(|r| r.map(|p| p.notices))));
+    let reading_msgs = Signal::derive(move || messages(near.reading_parsed().map(|r| r.map(|p| p.notices))));
+    let age_msgs = Signal::derive(move || messages(near.age_parsed().map(|r| r.map(|p| p.notices))));
+
+    view! {
+        <h1>"Near add"</h1>
+        <p class="lede">"What a reading distance asks of the eye through the spectacles, with their add, and with contact lenses or a frame at another distance; and the add that keeps the same near effect there. Worked by the vergence chain, per principal meridian."</p>
+        <div class="panel-grid">
+            <div class="inputs">
+                <PlaneInputs planes=planes id_prefix="near" on_edit=noop/>
+                <fieldset class="near-task">
+                    <legend>"Near task"</legend>
+                    <TextField id="near-add" label="Spectacle add" value=near.add messages=add_msgs
+                        step=StepKind::Add unit="D" placeholder="+2.00"/>
+                    <TextField id="near-reading" label="Reading distance" value=near.reading messages=reading_msgs
+                        placeholder="40"/>
+                    {choice_pair("near-unit", "Reading distance in", "Centimetres", "Inches", near.inches)}
+                    {choice_pair("near-measured", "Reading distance measured from", "The spectacle plane", "The eye (cornea)", near.from_eye)}
+                    <TextField id="near-age" label="Age (optional)" name="Age" value=near.age messages=age_msgs
+                        inputmode="numeric" unit="years" placeholder="50"/>
+                </fieldset>
+                <EyeEntryForm entry=eyes.right parsed=eyes.right_parsed id_prefix="near" on_edit=noop/>
+                <EyeEntryForm entry=eyes.left parsed=eyes.left_parsed id_prefix="near" on_edit=noop/>
+            </div>
+            <div class="results">
+                <EyeCard eye=Eye::Right shown=eyes.right_card/>
+                <EyeCard eye=Eye::Left shown=eyes.left_card/>
+                <p class="visually-hidden" aria-live="polite">{move || eyes.announcement()}</p>
+                <SaveBar id_prefix="near" text=text request=request/>
+            </div>
+        </div>
+        <Cautions extra=vec![
+            "Multifocal contact-lens \"add\" labels are not optical adds: fit by the maker's guide and trial.",
+            "Amplitude by age (Hofstetter) is a population estimate: refine with the patient's measured amplitude.",
+            "Trial the add at the patient's real reading distance before ordering.",
+            "Accommodation is referred to the corneal vertex; the reading distance is taken from the plane chosen above.",
+        ]/>
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use lensplane_core::{Rx, VertexDistance};
+
+    fn input(rx: Rx, add: f64, age: Option<u8>) -> NearInput {
+        NearInput {
+            rx,
+            add: Add::new(add).unwrap(),
+            spectacle_vertex: VertexDistance::SPECTACLES,
+            reading: ReadingDistance::from_cm(40.0).unwrap(),
+            measured: Measured::FromLens,
+            target: VertexDistance::CORNEA,
+            age: age.map(|a| Age::new(a).unwrap()),
+            settings: OrderSettings::default(),
+        }
+    }
+
+    fn card(rx: Rx, add: f64, age: Option<u8>) -> Card {
+        let i = input(rx, add, age);
+        near_card(&i, &near_report(&i).unwrap(), false)
+    }
+
+    fn value<'a>(card: &'a Card, label: &str) -> &'a str {
+        &card.rows.iter().find(|r| r.label == label).unwrap_or_else(|| panic!("no row {label}: {:?}", card.rows)).value
+    }
+
+    #[test]
+    fn n1_and_n3_figures_are_on_the_card() {
+        // N1 [textbook] and N3 [derived] of shared/optics-notes.md: −6.00 @ 12 mm, 40 cm from the lens,
+        // add +2.50: through the spectacles 2.1162, contact lens 2.4272, relief 2.1162, contact-lens add 2.4272.
+        let c = card(Rx::sphere_only(-6.0).unwrap(), 2.5, None);
+        assert_eq!(c.main_label, "Equivalent add at the cornea (contact lens)");
+        assert_eq!(c.main_value, "+2.43");
+        assert_eq!(value(&c, "Demand at 40 cm"), "2.50 D");
+        assert_eq!(value(&c, "Accommodation through the spectacles, no add"), "2.12 D");
+        assert_eq!(value(&c, "Accommodation in contact lenses, no add"), "2.43 D");
+        assert_eq!(value(&c, "Relief the spectacle add gives at the eye"), "2.12 D");
+        assert_eq!(value(&c, "Orderable add"), "+2.50");
+        assert!(c.reason.starts_with("-6.00 DS with add +2.50: a myope in contact lenses needs more accommodation"), "{}", c.reason);
+    }
+
+    #[test]
+    fn n4_is_not_the_shortcut() {
+        // N4 [derived]: +6.00, add +2.50 → 2.4272 at the cornea; the shortcut V(F + A) − V(F) gives 3.0000.
+        let c = card(Rx::sphere_only(6.0).unwrap(), 2.5, None);
+        assert_eq!(c.main_value, "+2.43");
+        assert_eq!(value(&c, "Relief the spectacle add gives at the eye"), "2.81 D");
+    }
+
+    #[test]
+    fn amplitude_rows_with_an_age() {
+        // H1 [published] age 50: 2.50 / 3.50 / 5.00; A1 [textbook]: half reserve 1.25, one-third 0.8333 → 0.75.
+        let c = card(Rx::sphere_only(0.0).unwrap(), 2.0, Some(50));
+        assert_eq!(value(&c, "Amplitude at age 50 (Hofstetter)"), "2.50 / 3.50 / 5.00 D");
+        let t = c.rows.iter().find(|r| r.label == "Tentative add, minimum amplitude").unwrap();
+        assert_eq!(t.value, "+1.25");
+        assert!(t.detail.contains("one-third in reserve +0.83 (orderable +0.75)"), "{}", t.detail);
+        assert!(card(Rx::sphere_only(0.0).unwrap(), 2.0, None).rows.iter().all(|r| !r.label.starts_with("Amplitude")));
+    }
+
+    #[test]
+    fn meridian_rows_only_when_there_is_a_cylinder() {
+        let sph = card(Rx::sphere_only(-6.0).unwrap(), 2.5, None);
+        assert!(!sph.rows.iter().any(|r| r.label.starts_with("Meridian") || r.label == "Spherical equivalent"));
+        let cyl = card(Rx::new(-6.0, -2.0, 180).unwrap(), 2.5, None);
+        assert_eq!(value(&cyl, "Spherical equivalent"), "-7.00");
+        // The −6.00 meridian carries N1's figures [textbook].
+        let m = cyl.rows.iter().find(|r| r.label == "Meridian 180°").unwrap();
+        assert_eq!(m.value, "-6.00");
+        assert!(m.detail.starts_with("accommodation through the spectacles 2.12 D without the add"), "{}", m.detail);
+        assert_eq!(value(&cyl, "Meridian 90°"), "-8.00");
+    }
+
+    #[test]
+    fn panel_wide_cautions_are_not_repeated_in_every_card() {
+        let c = card(Rx::sphere_only(-6.0).unwrap(), 2.5, Some(50));
+        assert!(c.warnings.iter().all(|w| !w.contains("not optical adds") && !w.contains("population estimate")), "{:?}", c.warnings);
+    }
+
+    #[test]
+    fn reading_in_inches_is_described_in_both_units() {
+        // [definition] 1 in = 2.54 cm.
+        assert_eq!(reading_words(ReadingDistance::from_inches(16.0).unwrap(), true), "16 in (40.64 cm)");
+        assert_eq!(reading_words(ReadingDistance::from_cm(33.33).unwrap(), false), "33.33 cm");
+    }
 }

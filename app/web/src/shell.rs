@@ -3,7 +3,7 @@
 
 use crate::history::History;
 use crate::link::{Destination, Query};
-use crate::panels::{EquivalentPanel, HistoryPanel, NearPanel, VertexPanel};
+use crate::panels::{EquivalentPanel, HistoryBanner, HistoryPanel, NearPanel, VertexPanel};
 use crate::sync::{carried_href, Base, Carry};
 use leptos::prelude::*;
 use leptos_router::components::{Redirect, Route, Router, Routes, A};
@@ -84,6 +84,7 @@ pub fn App() -> impl IntoView {
                 <ConnectionBadge/>
             </header>
             <nav class="destinations" aria-label="Calculators">{links}</nav>
+            <HistoryBanner/>
             <main id="main" tabindex="-1">
                 <Routes fallback=|| view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }>
                     <Route path=path!("/") view=|| view! { <Redirect path="vertex"/> }/>

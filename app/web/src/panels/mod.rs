@@ -7,6 +7,6 @@ mod near;
 mod vertex;
 
 pub use equivalent::EquivalentPanel;
-pub use history::HistoryPanel;
+pub use history::{HistoryBanner, HistoryPanel};
 pub use near::NearPanel;
 pub use vertex::VertexPanel;

@@ -45,9 +45,9 @@ pub fn parse_import(text: &str) -> Result<Vec<Entry>, Problem> {
         Some(s) if s > SCHEMA => return refuse("it was made by a newer version of Lensplane; update first".into()),
         _ => return refuse("its format version is not supported".into()),
     }
-    let Some(list) = file.get("entries").and_then(Value::arr) else { return refuse("it is damaged (no entries)".into()) };
+    let Some(Value::Arr(list)) = file.take("entries") else { return refuse("it is damaged (no entries)".into()) };
     let mut entries = Vec::with_capacity(list.len());
-    for (n, v) in list.iter().enumerate() {
+    for (n, v) in list.into_iter().enumerate() {
         let Some(e) = Entry::read(v) else { return refuse(format!("it is damaged (entry {} is incomplete)", n + 1)) };
         if let Some(p) = e.problem() {
             return refuse(p);

@@ -26,6 +26,14 @@ impl Value {
         }
     }
 
+    /// Moves a field out of an object.
+    pub fn take(self, key: &str) -> Option<Value> {
+        match self {
+            Value::Obj(pairs) => pairs.into_iter().find(|(k, _)| k == key).map(|(_, v)| v),
+            _ => None,
+        }
+    }
+
     pub fn str(&self) -> Option<&str> {
         match self {
             Value::Str(s) => Some(s),

@@ -68,6 +68,23 @@ impl Manifest {
     }
 }
 
+fn read_eye(v: Value) -> Option<EyeSummary> {
+    let Value::Obj(pairs) = v else { return None };
+    let (mut eye, mut input, mut result, mut order) = (None, None, None, None);
+    for (k, v) in pairs {
+        match (k.as_str(), v) {
+            ("s", Value::Str(s)) => eye = Some(s),
+            ("i", Value::Str(s)) => input = Some(s),
+            ("r", Value::Str(s)) => result = Some(s),
+            ("o", Value::Str(s)) => order = Some(s).filter(|o| !o.is_empty()),
+            ("o", Value::Null) => {}
+            ("s" | "i" | "r" | "o", _) => return None,
+            _ => {}
+        }
+    }
+    Some(EyeSummary { eye: eye?, input: input?, result: result?, order })
+}
+
 /// An entry as schema 1 stored it, in the current schema.
 pub fn read_v1(v: &Value) -> Option<Entry> {
     let link = v.text("link", false)?;
@@ -159,35 +176,60 @@ impl Entry {
         out.push_str("]}");
     }
 
-    /// Reads a stored entry (not yet checked: see [`Entry::problem`]).
-    pub fn read(v: &Value) -> Option<Entry> {
-        let eyes = v
-            .get("e")?
-            .arr()?
-            .iter()
-            .map(|e| {
-                let order = Some(e.text("o", true)?).filter(|o| !o.is_empty());
-                Some(EyeSummary { eye: e.text("s", false)?, input: e.text("i", false)?, result: e.text("r", false)?, order })
-            })
-            .collect::<Option<Vec<_>>>()?;
-        Some(Entry::new(v.text("id", false)?, v.get("t")?.int()?, v.text("p", false)?, v.text("q", false)?, v.text("l", true)?, eyes))
-    }
-
-    /// Computes the filter's search text: one line per field, spacing folded.
-    pub fn index(&mut self) {
-        let mut s = String::with_capacity(96);
-        s.push_str(&self.l);
-        s.push('\n');
-        if let Some(d) = panel_of(&self.p) {
-            s.push_str(panel_words(d));
-        }
-        for eye in &self.e {
-            for part in [eye.eye.as_str(), &eye.input, &eye.result, eye.order.as_deref().unwrap_or("")] {
-                s.push('\n');
-                s.push_str(part);
+    /// Reads a stored entry, moving its text out of the parsed value (not
+    /// yet checked: see [`Entry::problem`]).
+    pub fn read(v: Value) -> Option<Entry> {
+        let Value::Obj(pairs) = v else { return None };
+        let (mut id, mut t, mut p, mut q, mut l, mut e) = (None, None, None, None, String::new(), None);
+        for (k, v) in pairs {
+            match (k.as_str(), v) {
+                ("id", Value::Str(s)) => id = Some(s),
+                ("t", Value::Int(n)) => t = Some(n),
+                ("p", Value::Str(s)) => p = Some(s),
+                ("q", Value::Str(s)) => q = Some(s),
+                ("l", Value::Str(s)) => l = s,
+                ("l", Value::Null) => {}
+                ("e", Value::Arr(a)) => e = Some(a.into_iter().map(read_eye).collect::<Option<Vec<_>>>()?),
+                ("id" | "t" | "p" | "q" | "l" | "e", _) => return None,
+                _ => {}
             }
         }
-        self.search = fold(&s).split('\n').map(|line| line.split_whitespace().collect::<Vec<_>>().join(" ")).collect::<Vec<_>>().join("\n");
+        Some(Entry::new(id?, t?, p?, q?, l, e?))
+    }
+
+    /// Computes the filter's search text: one line per field, folded (see
+    /// [`fold`]) and with runs of spaces as one, in a single pass.
+    pub fn index(&mut self) {
+        let mut s = String::with_capacity(96);
+        let mut line = |text: &str| {
+            let mut space = false;
+            for c in text.chars().flat_map(char::to_lowercase) {
+                match c {
+                    '°' => {}
+                    c if c.is_whitespace() => space = !s.is_empty() && !s.ends_with('\n'),
+                    c => {
+                        if space {
+                            s.push(' ');
+                            space = false;
+                        }
+                        s.push(match c {
+                            '×' => 'x',
+                            '−' | '–' => '-',
+                            c => c,
+                        });
+                    }
+                }
+            }
+            s.push('\n');
+        };
+        line(&self.l);
+        line(panel_of(&self.p).map(panel_words).unwrap_or(""));
+        for eye in &self.e {
+            for part in [eye.eye.as_str(), &eye.input, &eye.result, eye.order.as_deref().unwrap_or("")] {
+                line(part);
+            }
+        }
+        self.search = s;
     }
 
     pub fn panel(&self) -> Destination {
@@ -260,6 +302,8 @@ mod tests {
     fn search_text_reads_typographic_signs_as_typed_ones() {
         let e = Entry::new("x".into(), 1_714_745_100_000, "vertex".into(), String::new(), "Bench B".into(), vec![eye("R")]);
         assert!(e.search.contains("-8.00 -2.00 x180"), "{}", e.search);
+        let spaced = Entry::new("y".into(), 1_714_745_100_000, "near".into(), String::new(), "  Room\t 2 ".into(), vec![eye("L")]);
+        assert_eq!(spaced.search, "room 2\nnear\nl\n-8.00 -2.00 x180\n-7.30 -1.63 x180\n\n");
         assert!(e.search.contains("bench b") && e.search.contains("vertex"));
         assert_eq!(fold("−2.00 × 90°"), "-2.00 x 90");
     }
@@ -288,7 +332,7 @@ mod tests {
         e.index();
         let mut out = String::new();
         e.write(&mut out);
-        assert_eq!(Entry::read(&super::super::json::parse(&out).unwrap()), Some(e.clone()));
+        assert_eq!(Entry::read(super::super::json::parse(&out).unwrap()), Some(e.clone()));
         let checked: serde_json::Value = serde_json::from_str(&out).unwrap();
         assert_eq!(checked["e"][1]["o"], "-7.25 -1.75 ×180");
         assert!(checked["e"][0].get("o").is_none());

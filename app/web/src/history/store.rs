@@ -500,8 +500,8 @@ impl<B: Backend> Store<B> {
 
 /// A month's entries, or `None` when the text is not a readable list of valid entries.
 pub fn parse_entries(text: &str) -> Option<Vec<Entry>> {
-    let v = json::parse(text).ok()?;
-    let list = v.arr()?.iter().map(Entry::read).collect::<Option<Vec<Entry>>>()?;
+    let Value::Arr(items) = json::parse(text).ok()? else { return None };
+    let list = items.into_iter().map(Entry::read).collect::<Option<Vec<Entry>>>()?;
     list.iter().all(|e| e.problem().is_none()).then_some(list)
 }
 

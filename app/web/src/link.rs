@@ -54,6 +54,17 @@ impl Destination {
         Destination::ALL.into_iter().find(|d| d.path() == trimmed)
     }
 
+    /// Its name in the navigation and in the history.
+    pub fn label(self) -> &'static str {
+        match self {
+            Destination::Vertex => "Vertex",
+            Destination::Equivalent => "Sph. equivalent",
+            Destination::Near => "Near",
+            Destination::History => "History",
+            Destination::About => "About",
+        }
+    }
+
     /// The query keys this destination understands, in the order links write them.
     pub fn keys(self) -> &'static [&'static str] {
         match self {

@@ -3,7 +3,7 @@
 
 use crate::history::History;
 use crate::link::{Destination, Query};
-use crate::panels::{AboutPanel, EquivalentPanel, HistoryPanel, NearPanel, VertexPanel};
+use crate::panels::{AboutPanel, EquivalentPanel, HistoryBanner, HistoryPanel, NearPanel, VertexPanel};
 use crate::sync::{carried_href, Base, Carry};
 use crate::theme::ThemeButton;
 use leptos::prelude::*;
@@ -29,15 +29,6 @@ pub fn build_meta(name: &str) -> String {
         .unwrap_or_else(|| "unknown".into())
 }
 
-fn nav_label(dest: Destination) -> &'static str {
-    match dest {
-        Destination::Vertex => "Vertex",
-        Destination::Equivalent => "Sph. equivalent",
-        Destination::Near => "Near",
-        Destination::History => "History",
-        Destination::About => "About",
-    }
-}
 
 /// Online/offline, from the browser's own events.
 #[component]
@@ -72,7 +63,7 @@ pub fn App() -> impl IntoView {
                 // The router does not add its base to absolute links.
                 let b = link_base.clone();
                 let href = move || format!("{b}{}", carried_href(d, &carry.get()));
-                view! { <A href=href>{nav_label(d)}</A> }
+                view! { <A href=href>{d.label()}</A> }
             })
             .collect_view()
     };
@@ -91,6 +82,7 @@ pub fn App() -> impl IntoView {
                 </span>
             </header>
             <nav class="destinations" aria-label="Calculators">{links}</nav>
+            <HistoryBanner/>
             <main id="main" tabindex="-1">
                 <Routes fallback=|| view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }>
                     <Route path=path!("/") view=|| view! { <Redirect path="vertex"/> }/>

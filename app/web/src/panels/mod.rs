@@ -9,6 +9,6 @@ mod vertex;
 
 pub use about::AboutPanel;
 pub use equivalent::EquivalentPanel;
-pub use history::HistoryPanel;
+pub use history::{HistoryBanner, HistoryPanel};
 pub use near::NearPanel;
 pub use vertex::VertexPanel;

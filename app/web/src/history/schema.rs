@@ -1,0 +1,346 @@
+//! What is stored, schema versions and the migration from older ones.
+//!
+//! Schema 2 (current), in localStorage:
+//!
+//! ```text
+//! lensplane.history        manifest {"schema":2,"next":N,"chunks":[["2024-05","lensplane.history.2.7"],…]}
+//! lensplane.history.2.<n>  one month (UTC) of entries, oldest first: [entry, …]
+//! lensplane.history.aside  unreadable data kept aside: [["key","text as found"],…]
+//! ```
+//!
+//! An entry: `{"id":"…","t":<ms since 1970 UTC>,"p":"vertex","q":"<link query>","l":"label","e":[eye…]}`,
+//! an eye: `{"s":"R","i":"entered","r":"result","o":"orderable"}`. Keys are short
+//! because 10,000 entries must fit beside everything else in a few megabytes.
+//!
+//! Schema 1 (the first layout) kept one array under `lensplane.history.1`
+//! with long keys, the time in seconds and the whole link:
+//! `{"id","time","link":"/vertex?r=…","label","eyes":[{"eye","input","result","order"}]}`.
+
+use super::json::{key, quote, read_pairs, Value};
+use super::EyeSummary;
+use crate::link::{Destination, Query};
+
+pub const SCHEMA: i64 = 2;
+pub const MANIFEST_KEY: &str = "lensplane.history";
+pub const CHUNK_PREFIX: &str = "lensplane.history.2.";
+pub const ASIDE_KEY: &str = "lensplane.history.aside";
+pub const V1_KEY: &str = "lensplane.history.1";
+pub const PERSIST_ASKED_KEY: &str = "lensplane.persist-asked";
+
+/// Longest label kept (the field allows 60 characters).
+pub const LABEL_MAX: usize = 60;
+/// Longest text of any other stored field.
+const FIELD_MAX: usize = 400;
+
+/// One saved calculation.
+#[derive(Clone, Debug, PartialEq)]
+pub struct Entry {
+    pub id: String,
+    /// When it was saved: milliseconds since 1970-01-01 UTC.
+    pub t: i64,
+    /// The panel: "vertex", "equivalent" or "near".
+    pub p: String,
+    /// The panel's inputs in the link format (without `?`).
+    pub q: String,
+    /// Optional label.
+    pub l: String,
+    pub e: Vec<EyeSummary>,
+    /// Lowercase text the filter searches (never stored).
+    pub search: String,
+}
+
+/// The manifest: which key holds which month.
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Manifest {
+    pub schema: i64,
+    pub next: u64,
+    pub chunks: Vec<(String, String)>,
+}
+
+impl Manifest {
+    pub fn to_json(&self) -> String {
+        format!("{{\"schema\":{},\"next\":{},\"chunks\":{}}}", self.schema, self.next, super::json::pairs(&self.chunks))
+    }
+
+    pub fn read(v: &Value) -> Option<Manifest> {
+        let next = v.get("next")?.int().filter(|n| *n >= 0)? as u64;
+        Some(Manifest { schema: v.get("schema")?.int()?, next, chunks: read_pairs(v.get("chunks")?)? })
+    }
+}
+
+fn read_eye(v: Value) -> Option<EyeSummary> {
+    let Value::Obj(pairs) = v else { return None };
+    let (mut eye, mut input, mut result, mut order) = (None, None, None, None);
+    for (k, v) in pairs {
+        match (k.as_str(), v) {
+            ("s", Value::Str(s)) => eye = Some(s),
+            ("i", Value::Str(s)) => input = Some(s),
+            ("r", Value::Str(s)) => result = Some(s),
+            ("o", Value::Str(s)) => order = Some(s).filter(|o| !o.is_empty()),
+            ("o", Value::Null) => {}
+            ("s" | "i" | "r" | "o", _) => return None,
+            _ => {}
+        }
+    }
+    Some(EyeSummary { eye: eye?, input: input?, result: result?, order })
+}
+
+/// An entry as schema 1 stored it, in the current schema.
+pub fn read_v1(v: &Value) -> Option<Entry> {
+    let link = v.text("link", false)?;
+    let (path, query) = link.split_once('?').unwrap_or((link.as_str(), ""));
+    let eyes = v
+        .get("eyes")?
+        .arr()?
+        .iter()
+        .map(|e| {
+            let order = Some(e.text("order", true)?).filter(|o| !o.is_empty());
+            Some(EyeSummary { eye: e.text("eye", false)?, input: e.text("input", false)?, result: e.text("result", false)?, order })
+        })
+        .collect::<Option<Vec<_>>>()?;
+    let t = v.get("time")?.int()?.checked_mul(1000)?;
+    Some(Entry::new(v.text("id", false)?, t, path.trim_start_matches('/').into(), query.into(), v.text("label", true)?, eyes))
+}
+
+/// The panel name stored for a destination.
+pub fn panel_name(d: Destination) -> &'static str {
+    d.path().trim_start_matches('/')
+}
+
+/// The destination of a stored panel name (a calculator: never History or About).
+pub fn panel_of(name: &str) -> Option<Destination> {
+    Destination::from_path(&format!("/{name}")).filter(|d| !matches!(d, Destination::History | Destination::About))
+}
+
+/// Words shown for a panel.
+pub fn panel_words(d: Destination) -> &'static str {
+    d.label()
+}
+
+/// Lowercase, with the typographic minus, times sign and degree sign read
+/// as the plain characters people type.
+pub fn fold(text: &str) -> String {
+    text.chars()
+        .flat_map(char::to_lowercase)
+        .map(|c| match c {
+            '×' => 'x',
+            '−' | '–' => '-',
+            c => c,
+        })
+        .filter(|c| *c != '°')
+        .collect()
+}
+
+impl Entry {
+    pub fn new(id: String, t: i64, p: String, q: String, l: String, e: Vec<EyeSummary>) -> Entry {
+        let mut entry = Entry { id, t, p, q, l, e, search: String::new() };
+        entry.index();
+        entry
+    }
+
+    /// Appends the entry as stored JSON.
+    pub fn write(&self, out: &mut String) {
+        out.push('{');
+        key(out, "id");
+        quote(out, &self.id);
+        key(out, "t");
+        out.push_str(&self.t.to_string());
+        key(out, "p");
+        quote(out, &self.p);
+        key(out, "q");
+        quote(out, &self.q);
+        if !self.l.is_empty() {
+            key(out, "l");
+            quote(out, &self.l);
+        }
+        key(out, "e");
+        out.push('[');
+        for (i, eye) in self.e.iter().enumerate() {
+            if i > 0 {
+                out.push(',');
+            }
+            out.push('{');
+            for (k, v) in [("s", Some(&eye.eye)), ("i", Some(&eye.input)), ("r", Some(&eye.result)), ("o", eye.order.as_ref())] {
+                if let Some(v) = v {
+                    key(out, k);
+                    quote(out, v);
+                }
+            }
+            out.push('}');
+        }
+        out.push_str("]}");
+    }
+
+    /// Reads a stored entry, moving its text out of the parsed value (not
+    /// yet checked: see [`Entry::problem`]).
+    pub fn read(v: Value) -> Option<Entry> {
+        let Value::Obj(pairs) = v else { return None };
+        let (mut id, mut t, mut p, mut q, mut l, mut e) = (None, None, None, None, String::new(), None);
+        for (k, v) in pairs {
+            match (k.as_str(), v) {
+                ("id", Value::Str(s)) => id = Some(s),
+                ("t", Value::Int(n)) => t = Some(n),
+                ("p", Value::Str(s)) => p = Some(s),
+                ("q", Value::Str(s)) => q = Some(s),
+                ("l", Value::Str(s)) => l = s,
+                ("l", Value::Null) => {}
+                ("e", Value::Arr(a)) => e = Some(a.into_iter().map(read_eye).collect::<Option<Vec<_>>>()?),
+                ("id" | "t" | "p" | "q" | "l" | "e", _) => return None,
+                _ => {}
+            }
+        }
+        Some(Entry::new(id?, t?, p?, q?, l, e?))
+    }
+
+    /// Computes the filter's search text: one line per field, folded (see
+    /// [`fold`]) and with runs of spaces as one, in a single pass.
+    pub fn index(&mut self) {
+        let mut s = String::with_capacity(96);
+        let mut line = |text: &str| {
+            let mut space = false;
+            for c in text.chars().flat_map(char::to_lowercase) {
+                match c {
+                    '°' => {}
+                    c if c.is_whitespace() => space = !s.is_empty() && !s.ends_with('\n'),
+                    c => {
+                        if space {
+                            s.push(' ');
+                            space = false;
+                        }
+                        s.push(match c {
+                            '×' => 'x',
+                            '−' | '–' => '-',
+                            c => c,
+                        });
+                    }
+                }
+            }
+            s.push('\n');
+        };
+        line(&self.l);
+        line(panel_of(&self.p).map(panel_words).unwrap_or(""));
+        for eye in &self.e {
+            for part in [eye.eye.as_str(), &eye.input, &eye.result, eye.order.as_deref().unwrap_or("")] {
+                line(part);
+            }
+        }
+        self.search = s;
+    }
+
+    pub fn panel(&self) -> Destination {
+        panel_of(&self.p).unwrap_or(Destination::Vertex)
+    }
+
+    pub fn query(&self) -> Query {
+        Query::parse(&self.q)
+    }
+
+    /// The month (UTC) whose chunk holds the entry, "YYYY-MM".
+    pub fn month(&self) -> String {
+        use chrono::Datelike;
+        let d = chrono::DateTime::from_timestamp_millis(self.t).unwrap_or_default();
+        format!("{:04}-{:02}", d.year(), d.month())
+    }
+
+    /// Why the entry cannot be kept, if it cannot.
+    pub fn problem(&self) -> Option<String> {
+        let too_long = |s: &str| s.chars().count() > FIELD_MAX;
+        if self.id.is_empty() || self.id.len() > 40 {
+            return Some("an entry has no usable id".into());
+        }
+        // 2000-01-01 to 2199-12-31.
+        if !(946_684_800_000..7_258_032_000_000).contains(&self.t) {
+            return Some(format!("entry {} has an impossible date", self.id));
+        }
+        if panel_of(&self.p).is_none() {
+            return Some(format!("entry {} names an unknown panel", self.id));
+        }
+        if self.l.chars().count() > LABEL_MAX {
+            return Some(format!("entry {} has a label longer than {LABEL_MAX} characters", self.id));
+        }
+        if too_long(&self.q) || self.e.is_empty() || self.e.len() > 2 {
+            return Some(format!("entry {} has no usable calculation", self.id));
+        }
+        for eye in &self.e {
+            let parts = [&eye.input, &eye.result];
+            if !(eye.eye == "R" || eye.eye == "L") || parts.iter().any(|s| too_long(s)) || eye.order.as_deref().is_some_and(too_long) {
+                return Some(format!("entry {} has an unreadable eye", self.id));
+            }
+        }
+        None
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn eye(e: &str) -> EyeSummary {
+        EyeSummary { eye: e.into(), input: "-8.00 -2.00 ×180".into(), result: "-7.30 -1.63 ×180".into(), order: None }
+    }
+
+    #[test]
+    fn schema_one_entries_migrate_with_their_time_panel_and_inputs() {
+        let old = r#"{"id":"a1","time":1714745100,"link":"/near?r=%2B1.00&add=2.00","label":"Room 2",
+            "eyes":[{"eye":"R","input":"+1.00 DS","result":"+3.00 DS","order":null}]}"#;
+        let e = read_v1(&super::super::json::parse(old).unwrap()).unwrap();
+        assert_eq!(e.t, 1_714_745_100_000);
+        assert_eq!(e.panel(), Destination::Near);
+        assert_eq!(e.query().get("r"), Some("+1.00"));
+        assert_eq!(e.query().get("add"), Some("2.00"));
+        assert_eq!(e.l, "Room 2");
+        assert!(e.search.contains("room 2") && e.search.contains("+3.00 ds"));
+        assert_eq!(e.problem(), None);
+    }
+
+    #[test]
+    fn search_text_reads_typographic_signs_as_typed_ones() {
+        let e = Entry::new("x".into(), 1_714_745_100_000, "vertex".into(), String::new(), "Bench B".into(), vec![eye("R")]);
+        assert!(e.search.contains("-8.00 -2.00 x180"), "{}", e.search);
+        let spaced = Entry::new("y".into(), 1_714_745_100_000, "near".into(), String::new(), "  Room\t 2 ".into(), vec![eye("L")]);
+        assert_eq!(spaced.search, "room 2\nnear\nl\n-8.00 -2.00 x180\n-7.30 -1.63 x180\n\n");
+        assert!(e.search.contains("bench b") && e.search.contains("vertex"));
+        assert_eq!(fold("−2.00 × 90°"), "-2.00 x 90");
+    }
+
+    #[test]
+    fn entries_are_checked_field_by_field() {
+        let ok = Entry::new("x".into(), 1_714_745_100_000, "vertex".into(), String::new(), String::new(), vec![eye("R")]);
+        assert_eq!(ok.problem(), None);
+        let bad = |f: &dyn Fn(&mut Entry)| {
+            let mut e = ok.clone();
+            f(&mut e);
+            e.problem().expect("should be refused")
+        };
+        assert!(bad(&|e| e.id.clear()).contains("id"));
+        assert!(bad(&|e| e.t = 0).contains("date"));
+        assert!(bad(&|e| e.p = "history".into()).contains("unknown panel"));
+        assert!(bad(&|e| e.l = "x".repeat(61)).contains("label"));
+        assert!(bad(&|e| e.e.clear()).contains("calculation"));
+        assert!(bad(&|e| e.e[0].eye = "X".into()).contains("eye"));
+    }
+
+    #[test]
+    fn entries_written_read_back_identically_and_serde_json_agrees() {
+        let mut e = Entry::new("a\"1".into(), 1_714_745_100_000, "vertex".into(), "r=-8.00".into(), "Room <2>".into(), vec![eye("R"), eye("L")]);
+        e.e[1].order = Some("-7.25 -1.75 ×180".into());
+        e.index();
+        let mut out = String::new();
+        e.write(&mut out);
+        assert_eq!(Entry::read(super::super::json::parse(&out).unwrap()), Some(e.clone()));
+        let checked: serde_json::Value = serde_json::from_str(&out).unwrap();
+        assert_eq!(checked["e"][1]["o"], "-7.25 -1.75 ×180");
+        assert!(checked["e"][0].get("o").is_none());
+        assert_eq!(
+            out,
+            r#"{"id":"a\"1","t":1714745100000,"p":"vertex","q":"r=-8.00","l":"Room <2>","e":[{"s":"R","i":"-8.00 -2.00 ×180","r":"-7.30 -1.63 ×180"},{"s":"L","i":"-8.00 -2.00 ×180","r":"-7.30 -1.63 ×180","o":"-7.25 -1.75 ×180"}]}"#
+        );
+    }
+
+    #[test]
+    fn months_are_taken_in_utc() {
+        // 2024-05-31T23:30:00Z is June somewhere east of Greenwich, May in storage.
+        let e = Entry::new("x".into(), 1_717_198_200_000, "vertex".into(), String::new(), String::new(), vec![eye("R")]);
+        assert_eq!(e.month(), "2024-05");
+    }
+}

@@ -17,12 +17,14 @@ fi
 echo "== npm packages (tests/package-lock.json)"
 (cd tests && npm ci --no-audit --no-fund) || { echo "npm ci failed"; exit 1; }
 
-echo "== native tests (cargo test --workspace)"
-cargo test --workspace --locked 2>&1 | tee "$LOG/cargo.txt"
+echo "== native tests (core and web crates)"
+cargo test --workspace --exclude lensplane-tool --locked 2>&1 | tee "$LOG/cargo.txt"
 cargo_status=${PIPESTATUS[0]}
 
-echo "== building the app for the browser tests"
+echo "== the build program (release: its tests reuse the build it needs anyway)"
 cargo build --release --locked -p lensplane-tool || exit 1
+cargo test --release --locked -p lensplane-tool 2>&1 | tee -a "$LOG/cargo.txt"
+[ "${PIPESTATUS[0]}" = 0 ] || cargo_status=1
 ./target/release/lensplane build --out "$ROOT/target/browser-dist" --build-id test-run || exit 1
 
 echo "== browser tests (node --test, headless chromium)"

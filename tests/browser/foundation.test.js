@@ -163,9 +163,13 @@ test('works when deployed under a sub-path', async () => {
   await sub.stop();
 });
 
-test('the whole shell fits the 250 KB gzip budget', () => {
+// The enforced budget (README "Sizes"); the build reports the same figure.
+const BUDGET_GZIP = 310_000;
+
+test('the whole shell fits its gzip budget', () => {
   const report = JSON.parse(readFileSync(`${DIST}.report.json`, 'utf8'));
-  console.log(`shell: ${report.total_raw} B raw, ${report.total_gzip} B gzip (budget ${report.budget_gzip})`);
-  assert.ok(report.total_gzip <= 250_000, `${report.total_gzip} B gzip is over budget`);
+  console.log(`shell: ${report.total_raw} B raw, ${report.total_gzip} B gzip (budget ${BUDGET_GZIP})`);
+  assert.equal(report.budget_gzip, BUDGET_GZIP, 'the build and the test agree on the budget');
+  assert.ok(report.total_gzip <= BUDGET_GZIP, `${report.total_gzip} B gzip is over budget`);
   assert.ok(report.files.some((f) => f.file.endsWith('.wasm')));
 });

@@ -39,6 +39,20 @@ pub fn is_on_step(x: f64, step: f64) -> bool {
     (q - q.round()).abs() < EPS * q.abs().max(1.0)
 }
 
+impl TieRule {
+    /// Of two candidates exactly as near (`lo` < `hi`), the one this rule keeps.
+    fn pick(self, lo: f64, hi: f64) -> f64 {
+        let nearer_zero = if hi.abs() <= lo.abs() { hi } else { lo };
+        let farther = if hi.abs() >= lo.abs() { hi } else { lo };
+        match self {
+            TieRule::TowardPlus => hi,
+            TieRule::TowardMinus => lo,
+            TieRule::AwayFromZero => farther,
+            TieRule::TowardZero => nearer_zero,
+        }
+    }
+}
+
 /// Round `x` to a whole number of `step`s, ties by `tie`.
 ///
 /// ```
@@ -53,24 +67,7 @@ pub fn round_to_step(x: f64, step: f64, tie: TieRule) -> f64 {
     let frac = q - lo;
     let units = if (frac - 0.5).abs() < EPS * q.abs().max(1.0) {
         let hi = lo + 1.0;
-        match tie {
-            TieRule::TowardPlus => hi,
-            TieRule::TowardMinus => lo,
-            TieRule::AwayFromZero => {
-                if hi.abs() >= lo.abs() {
-                    hi
-                } else {
-                    lo
-                }
-            }
-            TieRule::TowardZero => {
-                if hi.abs() <= lo.abs() {
-                    hi
-                } else {
-                    lo
-                }
-            }
-        }
+        tie.pick(lo, hi)
     } else {
         q.round()
     };
@@ -175,24 +172,7 @@ impl Ladder {
         let hi = -self.floor(-x);
         let (d_lo, d_hi) = (x - lo, hi - x);
         let picked = if (d_lo - d_hi).abs() < 1e-9 {
-            match tie {
-                TieRule::TowardPlus => hi,
-                TieRule::TowardMinus => lo,
-                TieRule::AwayFromZero => {
-                    if hi.abs() >= lo.abs() {
-                        hi
-                    } else {
-                        lo
-                    }
-                }
-                TieRule::TowardZero => {
-                    if hi.abs() <= lo.abs() {
-                        hi
-                    } else {
-                        lo
-                    }
-                }
-            }
+            tie.pick(lo, hi)
         } else if d_lo < d_hi {
             lo
         } else {

@@ -3,7 +3,7 @@
 
 use crate::history::{EyeSummary, SaveRequest};
 use crate::link::{Destination, Query};
-use crate::widgets::{eye_words, shown_memo, Card, EyeEntry, Shown};
+use crate::widgets::{eye_words, shown_memo, Card, EyeCard, EyeEntry, SaveBar, Shown};
 use lensplane_core::{Error, Eye, Parsed, Rx};
 use leptos::prelude::*;
 
@@ -98,4 +98,21 @@ impl Eyes {
 /// The summary line of one eye for the history.
 pub fn summary(eye: Eye, input: &Rx, result: String, order: Option<String>) -> EyeSummary {
     EyeSummary { eye: eye_words(eye).1.into(), input: input.to_string(), result, order }
+}
+
+/// Both eyes' result cards, the polite announcement of them, and the
+/// copy/save bar: the results column of every calculator panel.
+#[component]
+pub fn EyeResults(
+    eyes: Eyes,
+    id_prefix: &'static str,
+    text: Signal<Option<String>>,
+    request: Callback<String, Option<SaveRequest>>,
+) -> impl IntoView {
+    view! {
+        <EyeCard eye=Eye::Right shown=eyes.right_card/>
+        <EyeCard eye=Eye::Left shown=eyes.left_card/>
+        <p class="visually-hidden" aria-live="polite">{move || eyes.announcement()}</p>
+        <SaveBar id_prefix=id_prefix text=text request=request/>
+    }
 }

@@ -1,13 +1,13 @@
 //! The spherical-equivalent destination: the spherical lens for a low
 //! cylinder, at the spectacle plane or the cornea, and whether it will do.
 
-use super::common::{summary, EyeOutcome, Eyes};
+use super::common::{summary, EyeOutcome, EyeResults, Eyes};
 use super::vertex::plane_words;
 use crate::link::{Destination, Query};
 use crate::sync::{initial_query, use_link_sync};
-use crate::widgets::{Card, Cautions, EyeCard, EyeEntryForm, Message, PlaneInputs, Planes, Row, SaveBar, TextField};
+use crate::widgets::{Card, Cautions, EyeEntryForm, Message, PlaneInputs, Planes, Row, TextField};
 use lensplane_core::{
-    equivalent_report, fmt_dioptres, fmt_power, EquivalentInput, EquivalentReport, Eye, LadderKind, OrderSettings,
+    equivalent_report, fmt_dioptres, fmt_power, EquivalentInput, EquivalentReport, LadderKind, OrderSettings,
     SubstituteSettings, Verdict,
 };
 use leptos::prelude::*;
@@ -129,10 +129,7 @@ pub fn EquivalentPanel() -> impl IntoView {
                 </details>
             </div>
             <div class="results">
-                <EyeCard eye=Eye::Right shown=eyes.right_card/>
-                <EyeCard eye=Eye::Left shown=eyes.left_card/>
-                <p class="visually-hidden" aria-live="polite">{move || eyes.announcement()}</p>
-                <SaveBar id_prefix="equivalent" text=text request=request/>
+                <EyeResults eyes=eyes id_prefix="equivalent" text=text request=request/>
             </div>
         </div>
         <Cautions extra=vec![

@@ -4,14 +4,14 @@
 //! and, with an age, Hofstetter's amplitudes and tentative adds. Every
 //! figure comes from the core's `near_report`.
 
-use super::common::{summary, EyeOutcome, Eyes};
+use super::common::{summary, EyeOutcome, EyeResults, Eyes};
 use super::vertex::plane_words;
 use crate::link::{Destination, Query};
 use crate::sync::{initial_query, use_link_sync};
-use crate::widgets::{Card, Cautions, EyeCard, EyeEntryForm, Message, PlaneInputs, Planes, Row, SaveBar, TextField};
+use crate::widgets::{Card, Cautions, EyeEntryForm, Message, PlaneInputs, Planes, Row, TextField};
 use lensplane_core::{
     fmt_dioptres, fmt_length, fmt_number, fmt_power, near_report, parse_add, parse_age, parse_reading_distance,
-    parse_reading_inches, Add, Age, Error, Eye, Measured, NearFigures, NearInput, NearReport, Notice, OrderSettings, Parsed,
+    parse_reading_inches, Add, Age, Error, Measured, NearFigures, NearInput, NearReport, Notice, OrderSettings, Parsed,
     ReadingDistance, StepKind, TentativeAdd, WarningKind,
 };
 use leptos::prelude::*;
@@ -295,10 +295,7 @@ pub fn NearPanel() -> impl IntoView {
                 <EyeEntryForm entry=eyes.left parsed=eyes.left_parsed id_prefix="near" on_edit=noop/>
             </div>
             <div class="results">
-                <EyeCard eye=Eye::Right shown=eyes.right_card/>
-                <EyeCard eye=Eye::Left shown=eyes.left_card/>
-                <p class="visually-hidden" aria-live="polite">{move || eyes.announcement()}</p>
-                <SaveBar id_prefix="near" text=text request=request/>
+                <EyeResults eyes=eyes id_prefix="near" text=text request=request/>
             </div>
         </div>
         <Cautions extra=vec![

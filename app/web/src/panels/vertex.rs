@@ -1,12 +1,12 @@
 //! The vertex destination: a full prescription for each eye moved to the
 //! cornea (contact lens) or to another vertex distance.
 
-use super::common::{summary, EyeOutcome, Eyes};
+use super::common::{summary, EyeOutcome, EyeResults, Eyes};
 use crate::link::{Destination, Query};
 use crate::sync::{initial_query, use_link_sync};
-use crate::widgets::{Card, Cautions, EyeCard, EyeEntryForm, PlaneInputs, Planes, Row, SaveBar};
+use crate::widgets::{Card, Cautions, EyeEntryForm, PlaneInputs, Planes, Row};
 use lensplane_core::{
-    fmt_dioptres, fmt_length, vertex_report, Eye, LadderKind, OrderSettings, PowerCross, VertexDistance, VertexInput,
+    fmt_dioptres, fmt_length, vertex_report, LadderKind, OrderSettings, PowerCross, VertexDistance, VertexInput,
     VertexReport,
 };
 use leptos::prelude::*;
@@ -109,10 +109,7 @@ pub fn VertexPanel() -> impl IntoView {
                     <button type="button" class="button" aria-pressed=move || if plus.get() { "true" } else { "false" }
                         on:click=move |_| plus.set(true)>"Plus cylinder"</button>
                 </div>
-                <EyeCard eye=Eye::Right shown=eyes.right_card/>
-                <EyeCard eye=Eye::Left shown=eyes.left_card/>
-                <p class="visually-hidden" aria-live="polite">{move || eyes.announcement()}</p>
-                <SaveBar id_prefix="vertex" text=text request=request/>
+                <EyeResults eyes=eyes id_prefix="vertex" text=text request=request/>
             </div>
         </div>
         <Cautions extra=vec!["Reference plane: the corneal vertex (thin-lens model)."]/>

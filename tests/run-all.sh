@@ -25,6 +25,8 @@ echo "== the build program (release: its tests reuse the build it needs anyway)"
 cargo build --release --locked -p lensplane-tool || exit 1
 cargo test --release --locked -p lensplane-tool 2>&1 | tee -a "$LOG/cargo.txt"
 [ "${PIPESTATUS[0]}" = 0 ] || cargo_status=1
+
+echo "== building the app for the browser tests"
 ./target/release/lensplane build --out "$ROOT/target/browser-dist" --build-id test-run || exit 1
 
 echo "== browser tests (node --test, headless chromium)"

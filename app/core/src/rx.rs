@@ -73,15 +73,7 @@ fn out_of_range(field: Field, value: f64) -> Error {
     } else {
         "(not a number)".into()
     };
-    Error::new(
-        ErrorKind::OutOfRange {
-            typed,
-            limit,
-            suggestions: vec![],
-        },
-        field,
-        None,
-    )
+    crate::units::range_error(field, typed, limit)
 }
 
 pub(crate) fn check_axis(axis: u16) -> Result<(), Error> {

@@ -8,7 +8,8 @@ use crate::error::{Error, ErrorKind, Field};
 use crate::format::{fmt_number, prose_power};
 use crate::limits::{ADD_MAX, AGE_YEARS, CM_PER_INCH, READING_CM, VERTEX_MAX_MM};
 
-fn range_error(field: Field, typed: String, limit: &'static str) -> Error {
+/// A value outside its hard limit, with no suggested reading.
+pub(crate) fn range_error(field: Field, typed: String, limit: &'static str) -> Error {
     Error::new(
         ErrorKind::OutOfRange {
             typed,

@@ -288,8 +288,8 @@ pub fn NearPanel() -> impl IntoView {
                         placeholder="40"/>
                     {choice_pair("near-unit", "Reading distance in", "Centimetres", "Inches", near.inches)}
                     {choice_pair("near-measured", "Reading distance measured from", "The spectacle plane", "The eye (cornea)", near.from_eye)}
-                    <TextField id="near-age" label="Age (optional)" name="Age" value=near.age messages=age_msgs
-                        inputmode="numeric" unit="years" placeholder="50"/>
+                    <TextField id="near-age" label="Age" placeholder="optional" value=near.age messages=age_msgs
+                        inputmode="numeric" unit="years" />
                 </fieldset>
                 <EyeEntryForm entry=eyes.right parsed=eyes.right_parsed id_prefix="near" on_edit=noop/>
                 <EyeEntryForm entry=eyes.left parsed=eyes.left_parsed id_prefix="near" on_edit=noop/>

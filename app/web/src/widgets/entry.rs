@@ -192,7 +192,7 @@ pub fn EyeEntryForm(
     view! {
         <fieldset class="eye-entry">
             <legend>{format!("{word} eye ({letter})")}</legend>
-            <TextField id=id("line") label="Whole prescription" name=format!("{word} prescription")
+            <TextField id=id("line") label="Prescription" name=format!("{word} prescription")
                 value=entry.line messages=messages(Slot::Line) inputmode="text"
                 placeholder="-8.00 -2.00 x180" on_edit=line_edit/>
             <div class="rx-fields">

@@ -82,9 +82,6 @@ pub fn PlaneInputs(
     planes: Planes,
     id_prefix: &'static str,
     on_edit: Callback<()>,
-    /// Label for the "from" field.
-    #[prop(default = "Measured or worn at")]
-    from_label: &'static str,
 ) -> impl IntoView {
     let from_msgs = Signal::derive(move || messages_of(planes.from_parsed().map(|p| p.notices)));
     let to_msgs = Signal::derive(move || messages_of(planes.to_parsed().map(|p| p.notices)));
@@ -92,7 +89,7 @@ pub fn PlaneInputs(
     view! {
         <fieldset class="planes">
             <legend>"Planes"</legend>
-            <TextField id=format!("{id_prefix}-from") label=from_label name="Vertex distance measured at"
+            <TextField id=format!("{id_prefix}-from") label="Vertex distance measured at"
                 value=planes.from messages=from_msgs unit="mm" placeholder="12" on_edit=on_edit/>
             <div class="target" role="radiogroup" aria-labelledby=format!("{group}-label")>
                 <span id=format!("{group}-label") class="group-label">"Move it to"</span>

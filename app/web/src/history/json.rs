@@ -7,6 +7,8 @@
 //! with a fraction or exponent are refused (the history stores none).
 //! Native tests cross-check it against serde_json.
 
+use std::borrow::Cow;
+
 /// A parsed JSON value. Objects keep their order; a repeated key's first value wins.
 #[derive(Clone, Debug, PartialEq)]
 pub enum Value {
@@ -68,25 +70,46 @@ impl Value {
 /// Nesting deeper than this is refused (a file cannot exhaust the stack).
 const DEPTH: usize = 32;
 
-struct Reader<'a> {
+/// A reader over JSON text, for [`parse`] and for readers that build their
+/// own types straight from the text (the stored entries: no [`Value`] tree,
+/// no allocation per key).
+pub struct Reader<'a> {
+    text: &'a str,
     bytes: &'a [u8],
     at: usize,
 }
 
 /// Parses a whole text; the error says where it stopped.
 pub fn parse(text: &str) -> Result<Value, String> {
-    let mut r = Reader { bytes: text.as_bytes(), at: 0 };
+    let mut r = Reader::new(text);
     let v = r.value(0)?;
-    r.space();
-    if r.at != r.bytes.len() {
-        return Err(r.fail());
-    }
+    r.end()?;
     Ok(v)
 }
 
-impl Reader<'_> {
-    fn fail(&self) -> String {
+impl<'a> Reader<'a> {
+    pub fn new(text: &'a str) -> Reader<'a> {
+        Reader { text, bytes: text.as_bytes(), at: 0 }
+    }
+
+    pub fn fail(&self) -> String {
         format!("unexpected data at byte {}", self.at)
+    }
+
+    /// Succeeds when only whitespace is left.
+    pub fn end(&mut self) -> Result<(), String> {
+        self.space();
+        if self.at == self.bytes.len() {
+            Ok(())
+        } else {
+            Err(self.fail())
+        }
+    }
+
+    /// The next byte that is not whitespace, not consumed.
+    pub fn peek(&mut self) -> Option<u8> {
+        self.space();
+        self.bytes.get(self.at).copied()
     }
 
     fn space(&mut self) {
@@ -103,52 +126,70 @@ impl Reader<'_> {
         ok
     }
 
-    fn value(&mut self, depth: usize) -> Result<Value, String> {
-        self.space();
-        if depth > DEPTH {
+    /// Reads `[…]`, calling `item` with the reader at each element.
+    pub fn array(&mut self, depth: usize, mut item: impl FnMut(&mut Self) -> Result<(), String>) -> Result<(), String> {
+        self.seq(depth, b'[', b']', |r| item(r))
+    }
+
+    /// Reads `{…}`, calling `field` with each key and the reader at its value.
+    pub fn object(&mut self, depth: usize, mut field: impl FnMut(&mut Self, &str) -> Result<(), String>) -> Result<(), String> {
+        self.seq(depth, b'{', b'}', |r| {
+            if r.peek() != Some(b'"') {
+                return Err(r.fail());
+            }
+            let key = r.string_cow()?;
+            if r.peek() != Some(b':') {
+                return Err(r.fail());
+            }
+            r.at += 1;
+            field(r, &key)
+        })
+    }
+
+    fn seq(&mut self, depth: usize, open: u8, close: u8, mut each: impl FnMut(&mut Self) -> Result<(), String>) -> Result<(), String> {
+        if depth > DEPTH || self.peek() != Some(open) {
             return Err(self.fail());
         }
-        let Some(&c) = self.bytes.get(self.at) else { return Err(self.fail()) };
-        match c {
-            b'{' | b'[' => {
-                self.at += 1;
-                let close = if c == b'{' { b'}' } else { b']' };
-                let mut pairs = Vec::new();
-                let mut items = Vec::new();
-                self.space();
-                if self.bytes.get(self.at) == Some(&close) {
+        self.at += 1;
+        if self.peek() == Some(close) {
+            self.at += 1;
+            return Ok(());
+        }
+        loop {
+            each(self)?;
+            match self.peek() {
+                Some(b',') => self.at += 1,
+                Some(c) if c == close => {
                     self.at += 1;
-                } else {
-                    loop {
-                        if c == b'{' {
-                            self.space();
-                            if self.bytes.get(self.at) != Some(&b'"') {
-                                return Err(self.fail());
-                            }
-                            let key = self.string()?;
-                            self.space();
-                            if !self.eat(":") {
-                                return Err(self.fail());
-                            }
-                            let v = self.value(depth + 1)?;
-                            pairs.push((key, v));
-                        } else {
-                            items.push(self.value(depth + 1)?);
-                        }
-                        self.space();
-                        match self.bytes.get(self.at) {
-                            Some(b',') => self.at += 1,
-                            Some(x) if *x == close => {
-                                self.at += 1;
-                                break;
-                            }
-                            _ => return Err(self.fail()),
-                        }
-                    }
+                    return Ok(());
                 }
-                Ok(if c == b'{' { Value::Obj(pairs) } else { Value::Arr(items) })
+                _ => return Err(self.fail()),
             }
-            b'"' => self.string().map(Value::Str),
+        }
+    }
+
+    /// Any value; `depth` is the nesting so far.
+    pub fn value(&mut self, depth: usize) -> Result<Value, String> {
+        let Some(c) = self.peek() else { return Err(self.fail()) };
+        match c {
+            b'{' => {
+                let mut pairs: Vec<(String, Value)> = Vec::new();
+                self.object(depth, |r, k| {
+                    let v = r.value(depth + 1)?;
+                    pairs.push((k.to_string(), v));
+                    Ok(())
+                })?;
+                Ok(Value::Obj(pairs))
+            }
+            b'[' => {
+                let mut items = Vec::new();
+                self.array(depth, |r| {
+                    items.push(r.value(depth + 1)?);
+                    Ok(())
+                })?;
+                Ok(Value::Arr(items))
+            }
+            b'"' => self.string(),
             b't' if self.eat("true") => Ok(Value::Bool(true)),
             b'f' if self.eat("false") => Ok(Value::Bool(false)),
             b'n' if self.eat("null") => Ok(Value::Null),
@@ -163,10 +204,15 @@ impl Reader<'_> {
                 if leading_zero || matches!(self.bytes.get(self.at), Some(b'.' | b'e' | b'E')) {
                     return Err(self.fail());
                 }
-                std::str::from_utf8(digits).ok().and_then(|s| s.parse().ok()).map(Value::Int).ok_or_else(|| self.fail())
+                self.text[start..self.at].parse().ok().map(Value::Int).ok_or_else(|| self.fail())
             }
             _ => Err(self.fail()),
         }
+    }
+
+    /// A string value.
+    pub fn string(&mut self) -> Result<Value, String> {
+        Ok(Value::Str(self.string_cow()?.into_owned()))
     }
 
     fn hex4(&mut self) -> Result<u32, String> {
@@ -175,24 +221,24 @@ impl Reader<'_> {
         h.ok_or_else(|| self.fail())
     }
 
-    /// A string starting at the opening quote.
-    fn string(&mut self) -> Result<String, String> {
+    /// A string at the opening quote; borrowed from the text when it has no escapes.
+    pub fn string_cow(&mut self) -> Result<Cow<'a, str>, String> {
+        if self.peek() != Some(b'"') {
+            return Err(self.fail());
+        }
         self.at += 1;
-        let mut out = String::new();
+        let run = self.plain_run()?;
+        if self.bytes.get(self.at) == Some(&b'"') {
+            self.at += 1;
+            return Ok(Cow::Borrowed(run));
+        }
+        let mut out = String::with_capacity(run.len() + 16);
+        out.push_str(run);
         loop {
-            let start = self.at;
-            while !matches!(self.bytes.get(self.at), Some(b'"' | b'\\') | None) {
-                if self.bytes[self.at] < 0x20 {
-                    return Err(self.fail());
-                }
-                self.at += 1;
-            }
-            // The input is a &str and the stops are ASCII, so this is whole characters.
-            out.push_str(std::str::from_utf8(&self.bytes[start..self.at]).map_err(|_| self.fail())?);
             match self.bytes.get(self.at) {
                 Some(b'"') => {
                     self.at += 1;
-                    return Ok(out);
+                    return Ok(Cow::Owned(out));
                 }
                 Some(b'\\') => {
                     self.at += 1;
@@ -221,10 +267,25 @@ impl Reader<'_> {
                         _ => return Err(self.fail()),
                     };
                     out.push(c);
+                    out.push_str(self.plain_run()?);
                 }
                 _ => return Err(self.fail()),
             }
         }
+    }
+
+    /// The text up to the next quote or backslash (control characters refused).
+    fn plain_run(&mut self) -> Result<&'a str, String> {
+        let start = self.at;
+        while let Some(&b) = self.bytes.get(self.at) {
+            match b {
+                b'"' | b'\\' => break,
+                0..=0x1f => return Err(self.fail()),
+                _ => self.at += 1,
+            }
+        }
+        // The stops are ASCII, so the slice is whole characters of the &str.
+        Ok(&self.text[start..self.at])
     }
 }
 

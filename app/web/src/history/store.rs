@@ -500,8 +500,7 @@ impl<B: Backend> Store<B> {
 
 /// A month's entries, or `None` when the text is not a readable list of valid entries.
 pub fn parse_entries(text: &str) -> Option<Vec<Entry>> {
-    let Value::Arr(items) = json::parse(text).ok()? else { return None };
-    let list = items.into_iter().map(Entry::read).collect::<Option<Vec<Entry>>>()?;
+    let list = Entry::read_list(text)?;
     list.iter().all(|e| e.problem().is_none()).then_some(list)
 }
 

@@ -1,11 +1,15 @@
-// History benchmark (prints figures; not a timed test). For 1,000 and 10,000
-// invented entries in the stored layout it measures, in Debian's headless
-// Chromium with the CPU slowed 4× (a phone-class stand-in):
-//   load    opening the store (reading and checking every entry), as timed by the app
-//   first   from navigation to /history until the first screen of entries is shown
-//           (includes starting the app; the 0-entry row is the baseline)
-//   filter  from typing a filter until the count and list are updated
+// History benchmark (prints figures; not a timed test). For invented entries
+// in the stored layout it measures, in Debian's headless Chromium with the CPU
+// slowed 4× (a phone-class stand-in), median of 3 runs:
+//   first    from navigation to /history until the first screen of entries is
+//            shown (includes starting the app; the 0-entry row is the baseline)
+//   all      from navigation until every stored month has been read
+//   busy     time spent reading the history, summed over its slices (as timed by the app)
+//   slice    the longest single slice: the longest the history holds the page still
+//   filter   from typing a filter (after everything is read) until the count and list update
 // and the bytes stored per entry (localStorage characters of the history keys).
+// "1 month" puts every entry in one stored month (one minute apart: the worst
+// case, one key to read); "14 months" spreads 10,000 entries an hour apart.
 // Run: cd tests && node bench/history-bench.mjs (LENSPLANE_DIST as for the browser tests, an absolute path)
 import { startServer, launch, waitForApp } from '../browser/harness.js';
 import { makeEntries, storedLayout, writeItems } from '../browser/history-fixtures.js';
@@ -13,15 +17,22 @@ import { makeEntries, storedLayout, writeItems } from '../browser/history-fixtur
 const SLOWDOWN = Number(process.env.CPU_SLOWDOWN || 4);
 const RUNS = 3;
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+const HOUR = 3600000, MINUTE = 60000;
+const CASES = [
+  { n: 0, spread: '-', step: MINUTE },
+  { n: 1000, spread: '1 month', step: MINUTE },
+  { n: 10000, spread: '1 month', step: MINUTE },
+  { n: 10000, spread: '14 months', step: HOUR },
+];
 
 const server = await startServer();
 const browser = await launch();
 const rows = [];
 try {
-  for (const n of [0, 1000, 10000]) {
-    const items = storedLayout(makeEntries(n));
+  for (const { n, spread, step } of CASES) {
+    const items = storedLayout(makeEntries(n, Date.UTC(2024, 4, 3, 8, 0), step));
     const chars = Object.entries(items).reduce((sum, [k, v]) => sum + k.length + v.length, 0);
-    const load = [], first = [], filter = [];
+    const m = { first: [], all: [], busy: [], slice: [], filter: [] };
     for (let run = 0; run < RUNS; run++) {
       const context = await browser.newContext();
       const page = await context.newPage();
@@ -34,11 +45,14 @@ try {
       await waitForApp(page);
       if (n) await page.waitForSelector('.history-entry');
       else await page.getByText('Nothing saved yet.').waitFor();
-      first.push(Date.now() - t0);
-      load.push(await page.evaluate(() => globalThis.lensplaneHistoryLoadMs));
+      m.first.push(Date.now() - t0);
+      await page.waitForFunction(() => globalThis.lensplaneHistoryLoadMs !== undefined);
+      m.all.push(Date.now() - t0);
+      m.busy.push(await page.evaluate(() => globalThis.lensplaneHistoryLoadMs));
+      m.slice.push(await page.evaluate(() => globalThis.lensplaneHistoryLongestSliceMs));
       if (n) {
         // Time in the page: from the input event to the count text changing.
-        filter.push(await page.evaluate(() => new Promise((resolve) => {
+        m.filter.push(await page.evaluate(() => new Promise((resolve) => {
           const count = document.querySelector('.history-count');
           const before = count.textContent;
           const input = document.getElementById('history-filter');
@@ -52,14 +66,17 @@ try {
       }
       await context.close();
     }
+    const ms = (xs) => (xs.length ? Math.round(median(xs)) : '-');
     rows.push({
       entries: n,
-      'load ms': Math.round(median(load)),
-      'first screen ms': Math.round(median(first)),
-      'filter ms': n ? Math.round(median(filter)) : '-',
+      spread,
+      'first ms': ms(m.first),
+      'all ms': ms(m.all),
+      'busy ms': ms(m.busy),
+      'slice ms': ms(m.slice),
+      'filter ms': ms(m.filter),
       'stored KB': Math.round(chars * 2 / 1024),
       'bytes/entry': n ? Math.round((chars * 2) / n) : '-',
-      'chars/entry': n ? Math.round(chars / n) : '-',
     });
   }
 } finally {

@@ -7,8 +7,8 @@ const PANELS = ['vertex', 'equivalent', 'near'];
 
 const fmt = (d) => (d === 0 ? 'plano' : (d > 0 ? '+' : '') + d.toFixed(2));
 
-/** `n` entries one minute apart from `start` (ms, UTC). */
-export function makeEntries(n, start = Date.UTC(2024, 4, 3, 8, 0)) {
+/** `n` entries `step` ms apart (one minute by default) from `start` (ms, UTC). */
+export function makeEntries(n, start = Date.UTC(2024, 4, 3, 8, 0), step = 60000) {
   const out = [];
   for (let i = 0; i < n; i++) {
     const sph = -0.25 * (i % 40);
@@ -18,7 +18,7 @@ export function makeEntries(n, start = Date.UTC(2024, 4, 3, 8, 0)) {
     const p = PANELS[i % 3];
     const eyes = [{ s: 'R', i: input, r: input, o: input }];
     if (i % 2 === 0) eyes.push({ s: 'L', i: input, r: input });
-    const e = { id: `seed-${i}`, t: start + i * 60000, p, q: `r=${encodeURIComponent(input)}`, e: eyes };
+    const e = { id: `seed-${i}`, t: start + i * step, p, q: `r=${encodeURIComponent(input)}`, e: eyes };
     if (i % 4 !== 3) e.l = `Room ${i % 7}`;
     out.push(e);
   }

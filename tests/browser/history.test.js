@@ -305,3 +305,25 @@ test('10,000 entries open showing one page, with more on request', async () => {
   assert.ok((await entries(page).count()) <= 50);
   await context.close();
 });
+
+test('a large history opens in slices: the newest month shows first while older months are read, and typing meanwhile is kept', async () => {
+  const { context, page } = await fresh();
+  await page.goto(server.url('icons/icon.svg'));
+  // 10,000 entries an hour apart: fourteen stored months, newest read first.
+  const list = makeEntries(10_000, Date.UTC(2024, 4, 3, 8, 0), 3_600_000);
+  await page.evaluate(writeItems, storedLayout(list));
+  // A phone-class CPU, so that reading takes many slices here too.
+  const cdp = await context.newCDPSession(page);
+  await cdp.send('Emulation.setCPUThrottlingRate', { rate: 4 });
+  await openHistory(page);
+  await count(page).getByText(/Still opening older entries…$/).waitFor();
+  const newest = list[list.length - 1];
+  assert.equal(await entries(page).first().locator('button[data-id]').getAttribute('data-id'), newest.id);
+  // Typing while reading goes on is not lost, and the count follows the months as they arrive.
+  await page.getByLabel('Filter').fill('room 3');
+  await count(page).getByText(/^\d+ of 10000 entries match\.$/).waitFor();
+  assert.equal(await page.getByLabel('Filter').inputValue(), 'room 3');
+  const slices = await page.evaluate(() => globalThis.lensplaneHistorySlices);
+  assert.ok(slices > 5, `read in ${slices} slices`);
+  await context.close();
+});

@@ -89,7 +89,26 @@ pub fn parse(text: &str) -> Result<Value, String> {
 
 impl<'a> Reader<'a> {
     pub fn new(text: &'a str) -> Reader<'a> {
-        Reader { text, bytes: text.as_bytes(), at: 0 }
+        Reader::starting_at(text, 0)
+    }
+
+    /// A reader resuming at byte `at` (a position an earlier reader reported).
+    pub fn starting_at(text: &'a str, at: usize) -> Reader<'a> {
+        Reader { text, bytes: text.as_bytes(), at }
+    }
+
+    /// Where the reader is, in bytes.
+    pub fn position(&self) -> usize {
+        self.at
+    }
+
+    /// Consumes `byte` if it comes next (after whitespace).
+    pub fn skip(&mut self, byte: u8) -> bool {
+        let next = self.peek() == Some(byte);
+        if next {
+            self.at += 1;
+        }
+        next
     }
 
     pub fn fail(&self) -> String {

@@ -47,6 +47,12 @@ pub struct SaveRequest {
     pub eyes: Vec<EyeSummary>,
 }
 
+/// Milliseconds of reading per slice while opening the history (a frame
+/// or so: the page stays responsive between slices).
+const SLICE_MS: f64 = 12.0;
+/// Entries read between looks at the clock (about 2 ms with the CPU slowed 4×).
+const STEP: usize = 64;
+
 /// The handle panels use to save, and the history destination uses for
 /// everything else; provided as context by the app shell. The store is
 /// opened on first use, so a large history never delays the first screen.
@@ -62,17 +68,60 @@ impl History {
         History { store: StoredValue::new_local(None), rev: RwSignal::new(0) }
     }
 
-    /// Opens the store if it is not open yet.
+    /// Opens the store if it is not open yet. The months are then read in
+    /// slices of about [`SLICE_MS`] milliseconds, newest first, each in its own task, so a
+    /// large history never holds the page still; views see each month as it
+    /// completes.
     pub fn open(&self) {
         if self.store.with_value(Option::is_some) {
             return;
         }
+        self.store.set_value(Some(Store::open_unread(Browser::open())));
+        // No notification for the first slice: `open` runs as a view starts
+        // reading, which then sees what it read.
+        self.read_slice(0.0, 0.0, 1, false);
+    }
+
+    /// Reads one slice and schedules the next; `busy` and `longest` are the
+    /// milliseconds spent so far and `slices` counts this one; all three are
+    /// published for the benchmark and the browser tests when done.
+    fn read_slice(self, busy: f64, longest: f64, slices: u32, notify: bool) {
         let started = js_sys::Date::now();
-        let store = Store::open(Browser::open());
-        // Read by the benchmark script.
-        let _ = js_sys::Reflect::set(&js_sys::global(), &"lensplaneHistoryLoadMs".into(), &(js_sys::Date::now() - started).into());
-        // No notification: every reader opens through `with` before reading.
-        self.store.set_value(Some(store));
+        let step = |s: &mut Store<Browser>| {
+            let mut changed = false;
+            // Small steps until the slice's time is used, so faster devices read more per slice.
+            while s.is_reading() && js_sys::Date::now() - started < SLICE_MS {
+                changed |= s.read_more(STEP);
+            }
+            (changed, s.is_reading())
+        };
+        let Some((changed, more)) = self.store.try_update_value(|s| s.as_mut().map(step)).flatten() else { return };
+        let spent = js_sys::Date::now() - started;
+        if changed && notify {
+            self.rev.update(|r| *r += 1);
+        }
+        let (busy, longest) = (busy + spent, longest.max(spent));
+        if more {
+            set_timeout(move || self.read_slice(busy, longest, slices + 1, true), std::time::Duration::ZERO);
+        } else {
+            // Read by the benchmark script (tests/bench/history-bench.mjs).
+            let global = js_sys::global();
+            let _ = js_sys::Reflect::set(&global, &"lensplaneHistoryLongestSliceMs".into(), &longest.into());
+            let _ = js_sys::Reflect::set(&global, &"lensplaneHistoryLoadMs".into(), &busy.into());
+            let _ = js_sys::Reflect::set(&global, &"lensplaneHistorySlices".into(), &slices.into());
+        }
+    }
+
+    /// Whether older months are still being read (tracked).
+    pub fn is_reading(&self) -> bool {
+        self.with(Store::is_reading)
+    }
+
+    /// Reads whatever is left at once (before an export, for instance).
+    pub fn finish_reading(&self) {
+        if self.store.with_value(|s| s.as_ref().is_some_and(Store::is_reading)) {
+            self.update(Store::finish_reading);
+        }
     }
 
     /// Reads the store (opening it if needed); tracks changes.
@@ -132,10 +181,6 @@ impl History {
         self.update(|s| s.discard_aside())
     }
 
-    /// How many entries are held.
-    pub fn len(&self) -> usize {
-        self.with(|s| s.entries().len())
-    }
 }
 
 impl Default for History {

@@ -85,6 +85,52 @@ fn read_eye(v: Value) -> Option<EyeSummary> {
     Some(EyeSummary { eye: eye?, input: input?, result: result?, order })
 }
 
+/// Reads a stored month's entries a few at a time, so a large history can
+/// be opened in slices that leave the page responsive between them.
+#[derive(Debug)]
+pub struct MonthReader {
+    text: String,
+    at: usize,
+}
+
+impl MonthReader {
+    pub fn new(text: String) -> MonthReader {
+        MonthReader { text, at: 0 }
+    }
+
+    /// Reads up to `max` more entries into `out`: `Ok(true)` once the whole
+    /// list has been read, `Err` if the text is not a list of entries.
+    pub fn read(&mut self, max: usize, out: &mut Vec<Entry>) -> Result<bool, String> {
+        let mut r = Reader::starting_at(&self.text, self.at);
+        if self.at == 0 {
+            if !r.skip(b'[') {
+                return Err(r.fail());
+            }
+            if r.skip(b']') {
+                r.end()?;
+                return Ok(true);
+            }
+        }
+        for _ in 0..max {
+            out.push(read_streamed(&mut r)?);
+            if r.skip(b']') {
+                r.end()?;
+                return Ok(true);
+            }
+            if !r.skip(b',') {
+                return Err(r.fail());
+            }
+        }
+        self.at = r.position();
+        Ok(false)
+    }
+
+    /// The text as found (to keep aside when it cannot be read).
+    pub fn into_text(self) -> String {
+        self.text
+    }
+}
+
 /// A string where one is required; `Err` for any other value.
 fn text_at(r: &mut Reader) -> Result<String, String> {
     match r.peek() {
@@ -275,17 +321,11 @@ impl Entry {
     /// Reads a stored month (`[entry, …]`) straight from its text, with the
     /// same result as [`json::parse`](super::json::parse) followed by
     /// [`Entry::read`] on each element, but without building a [`Value`] per
-    /// entry (opening 10,000 entries is dominated by this). `None` if the
-    /// text is not such a list; entries are not yet checked.
+    /// entry. `None` if the text is not such a list; entries are not yet checked.
     pub fn read_list(text: &str) -> Option<Vec<Entry>> {
-        let mut r = Reader::new(text);
+        let mut reader = MonthReader::new(text.to_string());
         let mut list = Vec::new();
-        r.array(0, |r| {
-            list.push(read_streamed(r)?);
-            Ok(())
-        })
-        .ok()?;
-        r.end().ok()?;
+        reader.read(usize::MAX, &mut list).ok()?;
         Some(list)
     }
 

@@ -9,6 +9,7 @@
 //! untouched, and the in-memory history is rolled back to match.
 
 use super::json::{self, pairs, read_pairs, Value};
+use super::schema::MonthReader;
 use super::schema::*;
 use std::collections::BTreeMap;
 
@@ -154,6 +155,13 @@ pub struct Store<B: Backend> {
     aside: Vec<(String, String)>,
     /// Things the user should be told once, since loading.
     pub notices: Vec<String>,
+    /// Months the manifest names that are not read yet, oldest first (the
+    /// newest is read first); see [`Store::read_more`].
+    unread: Vec<(String, String)>,
+    /// The month being read: (month, key, reader, entries so far).
+    reading: Option<(String, String, MonthReader, Vec<Entry>)>,
+    /// Months found unreadable while reading, set aside once all are read.
+    unreadable: Vec<(String, String)>,
 }
 
 /// What importing did.
@@ -170,10 +178,99 @@ impl<B: Backend> Store<B> {
     /// Opens whatever is stored. Never fails: problems become notices and a
     /// session-only mode, and unreadable data is kept aside.
     pub fn open(backend: B) -> Store<B> {
-        let mut store = Store { backend, mode: Mode::Durable, entries: Vec::new(), manifest: Manifest::default(), aside: Vec::new(), notices: Vec::new() };
-        store.manifest.schema = SCHEMA;
+        let mut store = Store::open_unread(backend);
+        store.finish_reading();
+        store
+    }
+
+    /// Opens the store but leaves the months to be read in slices by
+    /// [`Store::read_more`]; until then [`Store::entries`] holds the newest
+    /// months read so far. Every change reads the rest first, so a change
+    /// never writes a manifest that lacks a month not yet read.
+    pub fn open_unread(backend: B) -> Store<B> {
+        let mut store = Store {
+            backend,
+            mode: Mode::Durable,
+            entries: Vec::new(),
+            manifest: Manifest { schema: SCHEMA, ..Manifest::default() },
+            aside: Vec::new(),
+            notices: Vec::new(),
+            unread: Vec::new(),
+            reading: None,
+            unreadable: Vec::new(),
+        };
         store.load();
         store
+    }
+
+    /// Whether months remain to be read.
+    pub fn is_reading(&self) -> bool {
+        !self.unread.is_empty() || self.reading.is_some()
+    }
+
+    /// Reads up to `budget` more entries, newest month first. Returns true
+    /// when [`Store::entries`] changed (a month was completed, or reading
+    /// ended and the months found unreadable were set aside).
+    pub fn read_more(&mut self, budget: usize) -> bool {
+        if !self.is_reading() {
+            return false;
+        }
+        let mut changed = false;
+        let mut left = budget;
+        while left > 0 {
+            if self.reading.is_none() {
+                let Some((month, key)) = self.unread.pop() else { break };
+                match self.backend.read(&key) {
+                    Ok(Some(text)) => self.reading = Some((month, key, MonthReader::new(text), Vec::new())),
+                    // A month the manifest names but storage lost: nothing to keep.
+                    Ok(None) | Err(_) => self.notices.push(format!("The saved history of {month} was missing from storage.")),
+                }
+                continue;
+            }
+            let (_, _, reader, list) = self.reading.as_mut().expect("a month is being read");
+            let before = list.len();
+            let done = reader.read(left, list);
+            left = left.saturating_sub((list.len() - before).max(1));
+            let sound = done.is_ok() && list[before..].iter().all(|e| e.problem().is_none());
+            if sound && done != Ok(true) {
+                continue;
+            }
+            let (month, key, reader, mut list) = self.reading.take().expect("a month is being read");
+            if sound {
+                sort(&mut list);
+                list.append(&mut self.entries);
+                self.entries = list;
+                self.manifest.chunks.push((month, key));
+                changed = true;
+            } else {
+                self.unreadable.push((key, reader.into_text()));
+            }
+        }
+        if !self.is_reading() {
+            self.manifest.chunks.sort();
+            sort(&mut self.entries);
+            let unreadable = std::mem::take(&mut self.unreadable);
+            if !unreadable.is_empty() {
+                self.set_aside(unreadable);
+            }
+            self.note_aside();
+            changed = true;
+        }
+        changed
+    }
+
+    /// Reads every month not read yet.
+    pub fn finish_reading(&mut self) {
+        while self.is_reading() {
+            self.read_more(usize::MAX);
+        }
+    }
+
+    /// Data kept aside is mentioned until the user removes it.
+    fn note_aside(&mut self) {
+        if !self.aside.is_empty() && !self.notices.iter().any(|n| n == ASIDE_NOTE || n == ASIDE_UNSAVED) {
+            self.notices.push(ASIDE_NOTE.into());
+        }
     }
 
     fn session_only(&mut self, why: &str) {
@@ -200,7 +297,7 @@ impl<B: Backend> Store<B> {
                 let parsed = json::parse(&text).ok();
                 match parsed.as_ref().map(|v| (v.get("schema").and_then(Value::int), Manifest::read(v))) {
                     Some((Some(s), _)) if s > SCHEMA => return self.session_only(NEWER),
-                    Some((Some(SCHEMA), Some(m))) => self.load_chunks(m, &mut unreadable),
+                    Some((Some(SCHEMA), Some(m))) => self.load_chunks(m),
                     _ => unreadable.push((MANIFEST_KEY.into(), text)),
                 }
             }
@@ -213,10 +310,7 @@ impl<B: Backend> Store<B> {
             self.recover();
         }
         sort(&mut self.entries);
-        // Data kept aside is mentioned until the user removes it.
-        if !self.aside.is_empty() && !self.notices.iter().any(|n| n == ASIDE_NOTE || n == ASIDE_UNSAVED) {
-            self.notices.push(ASIDE_NOTE.into());
-        }
+        self.note_aside();
     }
 
     /// With the manifest unreadable (and already kept aside), reads every
@@ -263,25 +357,11 @@ impl<B: Backend> Store<B> {
         }
     }
 
-    fn load_chunks(&mut self, m: Manifest, unreadable: &mut Vec<(String, String)>) {
+    /// Queues the manifest's months for [`Store::read_more`].
+    fn load_chunks(&mut self, m: Manifest) {
         self.manifest = Manifest { schema: SCHEMA, next: m.next, chunks: Vec::new() };
-        for (month, key) in m.chunks {
-            let text = match self.backend.read(&key) {
-                Ok(Some(t)) => t,
-                // A month the manifest names but storage lost: nothing to keep.
-                Ok(None) | Err(_) => {
-                    self.notices.push(format!("The saved history of {month} was missing from storage."));
-                    continue;
-                }
-            };
-            match parse_entries(&text) {
-                Some(list) => {
-                    self.entries.extend(list);
-                    self.manifest.chunks.push((month, key));
-                }
-                None => unreadable.push((key, text)),
-            }
-        }
+        self.unread = m.chunks;
+        self.unread.sort();
     }
 
     fn migrate_v1(&mut self, unreadable: &mut Vec<(String, String)>) {
@@ -410,6 +490,7 @@ impl<B: Backend> Store<B> {
 
     /// Adds an entry (its id must be new); on failure nothing changes.
     pub fn add(&mut self, entry: Entry) -> Result<(), Problem> {
+        self.finish_reading();
         let pos = self.entries.partition_point(|e| (e.t, &e.id) <= (entry.t, &entry.id));
         let month = entry.month();
         self.entries.insert(pos, entry);
@@ -420,6 +501,7 @@ impl<B: Backend> Store<B> {
 
     /// Deletes an entry, returning it (for undo).
     pub fn delete(&mut self, id: &str) -> Result<Entry, Problem> {
+        self.finish_reading();
         let pos = self.entries.iter().position(|e| e.id == id).ok_or_else(|| "That entry is no longer in the history.".to_string())?;
         let entry = self.entries.remove(pos);
         match self.commit(vec![entry.month()]) {
@@ -433,6 +515,7 @@ impl<B: Backend> Store<B> {
 
     /// Deletes every entry (the data kept aside stays).
     pub fn clear(&mut self) -> Result<usize, Problem> {
+        self.finish_reading();
         let old = std::mem::take(&mut self.entries);
         let months = months(old.iter());
         match self.commit(months) {
@@ -447,6 +530,7 @@ impl<B: Backend> Store<B> {
     /// Imports an exported file: every entry is checked first; a bad file
     /// changes nothing; entries already present (same id) are skipped.
     pub fn import(&mut self, text: &str) -> Result<ImportReport, Problem> {
+        self.finish_reading();
         let incoming = super::export::parse_import(text)?;
         let total = incoming.len();
         let mut seen: Vec<&str> = self.entries.iter().map(|e| e.id.as_str()).collect();
@@ -475,6 +559,7 @@ impl<B: Backend> Store<B> {
 
     /// Removes the data kept aside (after the user exported it).
     pub fn discard_aside(&mut self) -> Result<(), Problem> {
+        self.finish_reading();
         if self.mode == Mode::Durable {
             self.backend.remove(ASIDE_KEY);
         }
@@ -726,5 +811,62 @@ mod tests {
         let gone = s.delete("a").unwrap();
         s.add(gone).unwrap();
         assert_eq!(ids(&reopen(s.backend())), ["a", "b"]);
+    }
+
+    /// Three readable months (April holds three entries), a damaged May and
+    /// a month the manifest names but storage lost.
+    fn several_months() -> Memory {
+        const APRIL: i64 = 1_712_153_100_000; // 2024-04-03T14:05:00Z
+        let mut s = Store::open(Memory::default());
+        for (id, t) in [("a1", APRIL), ("a2", APRIL + 1), ("a3", APRIL + 2), ("m", MAY), ("j1", JUNE), ("j2", JUNE + 1)] {
+            s.add(entry(id, t, "")).unwrap();
+        }
+        s.add(entry("x", 1_719_928_800_000, "")).unwrap(); // 2024-07-02
+        let key = |s: &Store<Memory>, month: &str| s.manifest.chunks.iter().find(|(m, _)| m == month).unwrap().1.clone();
+        let (may, july) = (key(&s, "2024-05"), key(&s, "2024-07"));
+        s.backend_mut().map.insert(may, "[{\"id\":\"m\",\"t\":1}]".into());
+        s.backend_mut().map.remove(&july);
+        s.backend().clone()
+    }
+
+    #[test]
+    fn reading_in_slices_ends_where_reading_at_once_does_newest_month_first() {
+        let at_once = Store::open(several_months());
+        assert_eq!(ids(&at_once), ["a1", "a2", "a3", "j1", "j2"]);
+        assert_eq!(at_once.aside().len(), 1);
+        assert_eq!(at_once.notices.len(), 2, "{:?}", at_once.notices);
+
+        let mut sliced = Store::open_unread(several_months());
+        assert!(sliced.is_reading() && sliced.entries().is_empty());
+        let mut seen: Vec<String> = Vec::new();
+        let mut steps = 0;
+        while sliced.is_reading() {
+            if sliced.read_more(1) {
+                seen.push(ids(&sliced).join(" "));
+            }
+            steps += 1;
+        }
+        // July is missing, so June shows first; May is unreadable; April completes the reading.
+        assert_eq!(seen, ["j1 j2", "a1 a2 a3 j1 j2"]);
+        assert!(steps >= 6, "one entry per slice: {steps} slices");
+        assert_eq!(ids(&sliced), ids(&at_once));
+        assert_eq!(sliced.aside(), at_once.aside());
+        assert_eq!(sliced.notices, at_once.notices);
+        assert_eq!(sliced.manifest, at_once.manifest);
+        assert_eq!(sliced.backend().map, at_once.backend().map);
+        assert!(!sliced.read_more(10), "nothing left to read");
+    }
+
+    #[test]
+    fn a_change_made_while_reading_keeps_the_months_not_yet_read() {
+        let mut s = Store::open_unread(several_months());
+        s.read_more(1);
+        assert!(s.is_reading());
+        s.add(entry("new", JUNE + 5, "")).unwrap();
+        assert!(!s.is_reading());
+        assert_eq!(ids(&reopen(s.backend())), ["a1", "a2", "a3", "j1", "j2", "new"]);
+        let mut s = Store::open_unread(several_months());
+        s.delete("j1").unwrap();
+        assert_eq!(ids(&reopen(s.backend())), ["a1", "a2", "a3", "j2"]);
     }
 }

@@ -166,12 +166,21 @@ pub fn HistoryPanel() -> impl IntoView {
 
     let list_ref = NodeRef::<leptos::html::Div>::new();
     let today = Local::now().date_naive();
-    Effect::new(move |_| {
+    // Rebuilds the list only when the entries on screen change (older months
+    // arriving while the history opens do not change the newest page).
+    Effect::new(move |before: Option<Vec<String>>| {
         let limit = shown.get();
-        let Some(container) = list_ref.get() else { return };
+        let Some(container) = list_ref.get() else { return before.unwrap_or_default() };
         results.with(|ids| {
-            history.with(|s| render_list(&container, s.entries(), &ids[..ids.len().min(limit)], &base, today));
-        });
+            history.with(|s| {
+                let page = &ids[..ids.len().min(limit)];
+                let on_screen: Vec<String> = page.iter().map(|&i| s.entries()[i].id.clone()).collect();
+                if before.as_ref() != Some(&on_screen) {
+                    render_list(&container, s.entries(), page, &base, today);
+                }
+                on_screen
+            })
+        })
     });
 
     let on_list_click = move |ev: leptos::ev::MouseEvent| {
@@ -202,13 +211,20 @@ pub fn HistoryPanel() -> impl IntoView {
             Err(p) => p,
         });
     };
+    let reading = Memo::new(move |_| history.is_reading());
     let count = move || {
         let (n, all) = (results.with(Vec::len), total.get());
-        match (n, all) {
+        let counted = match (n, all) {
+            (_, 0) if reading.get() => return "Opening the history…".to_string(),
             (_, 0) => "Nothing saved yet. Save a calculation from any panel: it stays on this device.".to_string(),
             (0, _) => format!("No entry matches (of {all})."),
             (n, all) if n == all => format!("{all} entries."),
             (n, all) => format!("{n} of {all} entries match."),
+        };
+        if reading.get() {
+            format!("{counted} Still opening older entries…")
+        } else {
+            counted
         }
     };
     let notes = Memo::new(move |_| storage_notes(history));
@@ -223,6 +239,7 @@ pub fn HistoryPanel() -> impl IntoView {
     };
     let export = move |csv: bool| {
         let stamp = iso_date(local(chrono::Utc::now().timestamp_millis(), &Local));
+        history.finish_reading();
         let (text, mime) =
             history.with(|s| if csv { (to_csv(s.entries(), &Local), "text/csv;charset=utf-8") } else { (to_json(s.entries()), "application/json") });
         download(&format!("lensplane-history-{stamp}.{}", if csv { "csv" } else { "json" }), mime, &text);
@@ -292,7 +309,8 @@ pub fn HistoryPanel() -> impl IntoView {
             </div>
             <p class="field-msg hint">"JSON keeps everything and imports back; CSV has one row per eye for spreadsheets. Exported files contain the labels you typed."</p>
             <div class="actions" hidden=move || total.get() == 0>
-                <button type="button" class="button danger" hidden=move || confirming.get() on:click=move |_| confirming.set(true)>"Clear all…"</button>
+                <button type="button" class="button danger" hidden=move || confirming.get()
+                    on:click=move |_| { history.finish_reading(); confirming.set(true); }>"Clear all…"</button>
                 <div class="confirm" role="group" aria-label="Confirm clearing" hidden=move || !confirming.get()>
                     <p>{move || format!("Delete all {} entries from this device? This cannot be undone: export first to keep a copy.", total.get())}</p>
                     <button type="button" class="button danger" on:click=clear_all>"Delete all entries"</button>" "

@@ -201,6 +201,16 @@ mod tests {
     }
 
     #[test]
+    fn one_id_twice_in_a_file_is_imported_once_even_at_different_times() {
+        let mut s = Store::open(Memory::default());
+        let file = to_json(&[entry("z", MAY + 7_200_000, "later", 1), entry("m", MAY + 60_000, "", 1), entry("z", MAY, "earlier", 1)]);
+        let report = s.import(&file).unwrap();
+        assert_eq!((report.added, report.duplicates), (2, 1));
+        let kept: Vec<(&str, &str)> = s.entries().iter().map(|e| (e.id.as_str(), e.l.as_str())).collect();
+        assert_eq!(kept, [("z", "earlier"), ("m", "")]);
+    }
+
+    #[test]
     fn unreadable_data_exports_exactly_as_found() {
         let kept = vec![("lensplane.history".to_string(), "{\"sch".to_string())];
         let text = unreadable_json(&kept);

@@ -536,9 +536,10 @@ impl<B: Backend> Store<B> {
         let mut seen: Vec<&str> = self.entries.iter().map(|e| e.id.as_str()).collect();
         seen.sort_unstable();
         let mut added: Vec<Entry> = incoming.into_iter().filter(|e| seen.binary_search(&e.id.as_str()).is_err()).collect();
-        // Repeats within the file: the same entry twice sorts side by side.
-        sort(&mut added);
+        // Repeats within the file, even with different times: the earliest of each id is kept.
+        added.sort_unstable_by(|a, b| (&a.id, a.t).cmp(&(&b.id, b.t)));
         added.dedup_by(|a, b| a.id == b.id);
+        sort(&mut added);
         let duplicates = total - added.len();
         if added.is_empty() {
             return Ok(ImportReport { added: 0, duplicates });

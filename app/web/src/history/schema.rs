@@ -379,6 +379,17 @@ impl Entry {
         format!("{:04}-{:02}", d.year(), d.month())
     }
 
+    /// The times (ms, UTC) from the start of `month` ("YYYY-MM") up to the
+    /// start of the next: exactly the entries whose [`Entry::month`] it is.
+    pub fn month_span(month: &str) -> Option<std::ops::Range<i64>> {
+        use chrono::NaiveDate;
+        let (y, m) = month.split_once('-')?;
+        let (y, m): (i32, u32) = (y.parse().ok()?, m.parse().ok()?);
+        let start = |y, m| NaiveDate::from_ymd_opt(y, m, 1).map(|d| d.and_time(chrono::NaiveTime::MIN).and_utc().timestamp_millis());
+        let (ny, nm) = if m == 12 { (y + 1, 1) } else { (y, m + 1) };
+        Some(start(y, m)?..start(ny, nm)?)
+    }
+
     /// Why the entry cannot be kept, if it cannot.
     pub fn problem(&self) -> Option<String> {
         // A text of at most FIELD_MAX bytes has at most FIELD_MAX characters.
@@ -512,6 +523,20 @@ mod tests {
             read += usize::from(ours.is_some());
         }
         assert_eq!(read, 6, "the first six are lists of entries, the rest are not");
+    }
+
+    #[test]
+    fn a_month_span_holds_exactly_the_entries_of_that_month() {
+        let at = |t: i64| Entry::new("x".into(), t, "vertex".into(), String::new(), String::new(), vec![eye("R")]);
+        let may = Entry::month_span("2024-05").unwrap();
+        assert_eq!(at(may.start).month(), "2024-05");
+        assert_eq!(at(may.start - 1).month(), "2024-04");
+        assert_eq!(at(may.end - 1).month(), "2024-05");
+        assert_eq!(at(may.end).month(), "2024-06");
+        let dec = Entry::month_span("2024-12").unwrap();
+        assert_eq!((at(dec.start).month(), at(dec.end).month()), ("2024-12".to_string(), "2025-01".to_string()));
+        assert_eq!(Entry::month_span("2024-13"), None);
+        assert_eq!(Entry::month_span("May"), None);
     }
 
     #[test]

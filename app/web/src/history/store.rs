@@ -440,7 +440,11 @@ impl<B: Backend> Store<B> {
             if let Some(pos) = next.chunks.iter().position(|(m, _)| m == month) {
                 superseded.push(next.chunks.remove(pos).1);
             }
-            let list: Vec<&Entry> = self.entries.iter().filter(|e| &e.month() == month).collect();
+            // Entries are in time order: the month is one run of them.
+            debug_assert!(self.entries.is_sorted_by_key(|e| e.t));
+            let span = Entry::month_span(month).unwrap_or(0..0);
+            let (from, to) = (self.entries.partition_point(|e| e.t < span.start), self.entries.partition_point(|e| e.t < span.end));
+            let list: Vec<&Entry> = self.entries[from..to].iter().collect();
             if list.is_empty() {
                 continue;
             }

@@ -7,6 +7,7 @@
 //   busy     time spent reading the history, summed over its slices (as timed by the app)
 //   slice    the longest single slice: the longest the history holds the page still
 //   filter   from typing a filter (after everything is read) until the count and list update
+//   save     from pressing "Save to history" on the vertex panel until it says it saved
 // and the bytes stored per entry (localStorage characters of the history keys).
 // "1 month" puts every entry in one stored month (one minute apart: the worst
 // case, one key to read); "14 months" spreads 10,000 entries an hour apart.
@@ -32,7 +33,7 @@ try {
   for (const { n, spread, step } of CASES) {
     const items = storedLayout(makeEntries(n, Date.UTC(2024, 4, 3, 8, 0), step));
     const chars = Object.entries(items).reduce((sum, [k, v]) => sum + k.length + v.length, 0);
-    const m = { first: [], all: [], busy: [], slice: [], filter: [] };
+    const m = { first: [], all: [], busy: [], slice: [], filter: [], save: [] };
     for (let run = 0; run < RUNS; run++) {
       const context = await browser.newContext();
       const page = await context.newPage();
@@ -64,6 +65,20 @@ try {
           input.dispatchEvent(new Event('input', { bubbles: true }));
         })));
       }
+      if (n) {
+        await page.goto(server.url('vertex?r=-8.00%20-2.00%20x180'));
+        await waitForApp(page);
+        await page.waitForFunction(() => globalThis.lensplaneHistoryLoadMs !== undefined);
+        await page.getByRole('region', { name: 'Right eye result' }).getByText('×').first().waitFor();
+        m.save.push(await page.evaluate(() => new Promise((resolve) => {
+          const button = [...document.querySelectorAll('button')].find((b) => b.textContent.trim() === 'Save to history');
+          const start = performance.now();
+          new MutationObserver((_, obs) => {
+            if (document.body.textContent.includes("Saved to this device's history.")) { obs.disconnect(); requestAnimationFrame(() => resolve(performance.now() - start)); }
+          }).observe(document.body, { childList: true, subtree: true, characterData: true });
+          button.click();
+        })));
+      }
       await context.close();
     }
     const ms = (xs) => (xs.length ? Math.round(median(xs)) : '-');
@@ -75,6 +90,7 @@ try {
       'busy ms': ms(m.busy),
       'slice ms': ms(m.slice),
       'filter ms': ms(m.filter),
+      'save ms': ms(m.save),
       'stored KB': Math.round(chars * 2 / 1024),
       'bytes/entry': n ? Math.round((chars * 2) / n) : '-',
     });

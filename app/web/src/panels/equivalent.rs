@@ -134,7 +134,6 @@ pub fn EquivalentPanel() -> impl IntoView {
         </div>
         <Cautions extra=vec![
             "A spherical lens leaves the astigmatism shown uncorrected: check acuity with the lens on the eye.",
-            "Reference plane: the corneal vertex (thin-lens model).",
         ]/>
     }
 }

@@ -112,7 +112,7 @@ pub fn VertexPanel() -> impl IntoView {
                 <EyeResults eyes=eyes id_prefix="vertex" text=text request=request/>
             </div>
         </div>
-        <Cautions extra=vec!["Reference plane: the corneal vertex (thin-lens model)."]/>
+        <Cautions/>
     }
 }
 

@@ -104,7 +104,7 @@ test('delete with undo, and clear all only after a confirmation', async () => {
   assert.notEqual(await entries(page).first().textContent(), text);
 
   await entries(page).first().getByRole('button', { name: 'Delete' }).click();
-  await count(page).getByText('1 entries.').waitFor();
+  await count(page).getByText('1 entry.').waitFor();
   await page.getByRole('button', { name: 'Undo' }).click();
   await count(page).getByText('2 entries.').waitFor();
   await page.reload();
@@ -119,6 +119,10 @@ test('delete with undo, and clear all only after a confirmation', async () => {
   await page.getByText('Nothing saved yet.').waitFor();
   await page.reload();
   await page.getByText('Nothing saved yet.').waitFor();
+  // Controls that do not apply are not on screen (the hidden attribute beats any class's display).
+  for (const name of ['Clear all…', 'Undo', 'Show more', 'Export unreadable data']) {
+    assert.equal(await page.locator('button', { hasText: name }).first().isVisible(), false, name);
+  }
   await context.close();
 });
 
@@ -192,7 +196,7 @@ test('storage full: a clear message, nothing stored is lost, the calculation sta
   assert.equal(await page.getByLabel('Label (optional)').inputValue(), 'does not fit');
   assert.deepEqual(await page.evaluate(() => ({ ...localStorage })), before);
   await openHistory(page); // a new page: setItem is the browser's own again
-  await count(page).getByText('1 entries.').waitFor();
+  await count(page).getByText('1 entry.').waitFor();
   await entries(page).filter({ hasText: 'stored before' }).waitFor();
   await context.close();
 });
@@ -262,7 +266,7 @@ test('export JSON and CSV as downloads; re-import skips duplicates; bad files ch
   await page.getByText('Imported 3 entries.').waitFor();
   await count(page).getByText('3 entries.').waitFor();
   await importFile('back.json', json.text);
-  await page.getByText('Nothing new to import: all 3 entries are already in the history.').waitFor();
+  await page.getByText('Nothing new to import: all 3 entries already in the history.').waitFor();
 
   const before = await page.evaluate(() => ({ ...localStorage }));
   await importFile('notes.json', 'these are not the droids');

@@ -27,11 +27,23 @@ pub fn unreadable_json(kept: &[(String, String)]) -> String {
     format!("{{\"format\":\"lensplane-unreadable\",\"note\":\"{note}\",\"kept\":{}}}", pairs(kept))
 }
 
+/// What an import larger than [`IMPORT_MAX`] is told.
+pub const TOO_LARGE: &str = "The file was not imported: it is larger than 6 MB. Nothing was changed.";
+
+/// "1 entry", "2 entries".
+pub fn entries_words(n: usize) -> String {
+    if n == 1 {
+        "1 entry".into()
+    } else {
+        format!("{n} entries")
+    }
+}
+
 /// Reads an exported file; every entry is checked before anything is used.
 pub fn parse_import(text: &str) -> Result<Vec<Entry>, Problem> {
     let refuse = |why: String| Err(format!("The file was not imported: {why}. Nothing was changed."));
     if text.len() > IMPORT_MAX {
-        return refuse(format!("it is larger than {} MB", IMPORT_MAX / 1_000_000));
+        return Err(TOO_LARGE.into());
     }
     let file = match json::parse(text) {
         Ok(v) => v,
@@ -198,6 +210,13 @@ mod tests {
         assert!(err.starts_with("Nothing was imported"), "{err}");
         assert_eq!(s.entries().len(), 2);
         assert_eq!(s.backend().map, before);
+    }
+
+    #[test]
+    fn counts_read_as_words_and_the_size_limit_matches_its_message() {
+        assert_eq!([entries_words(0), entries_words(1), entries_words(2)], ["0 entries", "1 entry", "2 entries"]);
+        assert_eq!(IMPORT_MAX, 6_000_000);
+        assert!(TOO_LARGE.contains("larger than 6 MB"));
     }
 
     #[test]

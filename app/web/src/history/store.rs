@@ -351,7 +351,7 @@ impl<B: Backend> Store<B> {
                 for k in stale {
                     self.backend.remove(k);
                 }
-                self.notices.push(format!("{} saved entries were recovered.", self.entries.len()));
+                self.notices.push(format!("Recovered {}.", super::export::entries_words(self.entries.len())));
             }
             Err(_) => self.session_only(ASIDE_UNSAVED),
         }
@@ -710,7 +710,7 @@ mod tests {
         let again = Store::open(m);
         assert_eq!(ids(&again), ["a", "b"]);
         assert_eq!(again.aside(), [(MANIFEST_KEY.to_string(), "garbage".to_string())]);
-        assert!(again.notices.iter().any(|n| n.contains("2 saved entries were recovered")), "{:?}", again.notices);
+        assert!(again.notices.iter().any(|n| n == "Recovered 2 entries."), "{:?}", again.notices);
         let third = reopen(again.backend());
         assert_eq!(ids(&third), ["a", "b"]);
         assert_eq!(third.backend().map.keys().filter(|k| k.starts_with(CHUNK_PREFIX)).count(), 2);

@@ -8,7 +8,7 @@
 //! is written with plain DOM calls, all text as text nodes, never markup.
 //! One delegated click handler serves every Delete button.
 
-use crate::history::export::{clock, day_words, iso_date, local, to_csv, to_json, unreadable_json};
+use crate::history::export::{clock, day_words, entries_words, iso_date, local, to_csv, to_json, unreadable_json, TOO_LARGE};
 use crate::history::schema::{panel_name, panel_of, panel_words, Entry};
 use crate::history::store::{Mode, IMPORT_MAX};
 use crate::history::{download, History};
@@ -207,7 +207,7 @@ pub fn HistoryPanel() -> impl IntoView {
         confirming.set(false);
         undo.set(None);
         status.set(match history.clear() {
-            Ok(n) => format!("Deleted all {n} entries."),
+            Ok(n) => format!("Deleted all {}.", entries_words(n)),
             Err(p) => p,
         });
     };
@@ -218,8 +218,8 @@ pub fn HistoryPanel() -> impl IntoView {
             (_, 0) if reading.get() => return "Opening the history…".to_string(),
             (_, 0) => "Nothing saved yet. Save a calculation from any panel: it stays on this device.".to_string(),
             (0, _) => format!("No entry matches (of {all})."),
-            (n, all) if n == all => format!("{all} entries."),
-            (n, all) => format!("{n} of {all} entries match."),
+            (n, all) if n == all => format!("{}.", entries_words(all)),
+            (n, all) => format!("{n} of {} match.", entries_words(all)),
         };
         if reading.get() {
             format!("{counted} Still opening older entries…")
@@ -249,16 +249,16 @@ pub fn HistoryPanel() -> impl IntoView {
         let Some(file) = input.files().and_then(|f| f.get(0)) else { return };
         input.set_value("");
         if file.size() > IMPORT_MAX as f64 {
-            status.set(format!("The file was not imported: it is larger than {} MB. Nothing was changed.", IMPORT_MAX / 1_000_000));
+            status.set(TOO_LARGE.into());
             return;
         }
         leptos::task::spawn_local(async move {
             let text = wasm_bindgen_futures::JsFuture::from(file.text()).await.ok().and_then(|t| t.as_string());
             status.set(match text.map(|t| history.import(&t)) {
                 None => "The file could not be read. Nothing was changed.".into(),
-                Some(Ok(r)) if r.added == 0 => format!("Nothing new to import: all {} entries are already in the history.", r.duplicates),
-                Some(Ok(r)) if r.duplicates == 0 => format!("Imported {} entries.", r.added),
-                Some(Ok(r)) => format!("Imported {} entries; {} already in the history were skipped.", r.added, r.duplicates),
+                Some(Ok(r)) if r.added == 0 => format!("Nothing new to import: all {} already in the history.", entries_words(r.duplicates)),
+                Some(Ok(r)) if r.duplicates == 0 => format!("Imported {}.", entries_words(r.added)),
+                Some(Ok(r)) => format!("Imported {}; {} already in the history skipped.", entries_words(r.added), entries_words(r.duplicates)),
                 Some(Err(p)) => p,
             });
         });
@@ -312,7 +312,7 @@ pub fn HistoryPanel() -> impl IntoView {
                 <button type="button" class="button danger" hidden=move || confirming.get()
                     on:click=move |_| { history.finish_reading(); confirming.set(true); }>"Clear all…"</button>
                 <div class="confirm" role="group" aria-label="Confirm clearing" hidden=move || !confirming.get()>
-                    <p>{move || format!("Delete all {} entries from this device? This cannot be undone: export first to keep a copy.", total.get())}</p>
+                    <p>{move || format!("Delete all {} from this device? This cannot be undone: export first to keep a copy.", entries_words(total.get()))}</p>
                     <button type="button" class="button danger" on:click=clear_all>"Delete all entries"</button>" "
                     <button type="button" class="button" on:click=move |_| confirming.set(false)>"Cancel"</button>
                 </div>

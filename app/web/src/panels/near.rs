@@ -106,8 +106,15 @@ fn reading_words(r: ReadingDistance, inches: bool) -> String {
     }
 }
 
-/// One line of per-meridian (or summary) figures.
-fn figures_line(f: &NearFigures, at_target: &str) -> String {
+/// One line of per-meridian (or summary) figures; without an add, only the accommodation.
+fn figures_line(f: &NearFigures, at_target: &str, no_add: bool) -> String {
+    if no_add {
+        return format!(
+            "accommodation through the spectacles {}; {at_target} {}",
+            fmt_dioptres(f.accommodation_spectacles),
+            fmt_dioptres(f.accommodation_target)
+        );
+    }
     format!(
         "accommodation through the spectacles {} without the add, {} with it; {at_target} {}; relief at the eye {}; equivalent add {}",
         fmt_dioptres(f.accommodation_spectacles),
@@ -145,6 +152,8 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
     let e = &r.equivalent;
     let from = if input.measured == Measured::FromEye { "the eye" } else { "the spectacle plane" };
     let add = fmt_power(r.add);
+    // No add entered (or plano): what the reading distance asks, and tentative adds with an age.
+    let no_add = input.add == Add::NONE;
     let mut rows = vec![];
     if r.meridians.len() > 1 {
         rows.push(Row::new(
@@ -160,8 +169,52 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
             format!("measured from {from}; spectacle accommodation (at the lens plane) {}", fmt_dioptres(r.spectacle_accommodation)),
         ),
         Row::new("Accommodation through the spectacles, no add", fmt_dioptres(e.accommodation_spectacles), "ocular accommodation, at the corneal vertex"),
-        Row::new(format!("Accommodation through the spectacles with the add {add}"), fmt_dioptres(e.accommodation_spectacles_with_add), ""),
-        Row::new(format!("Accommodation {in_target}, no add"), fmt_dioptres(e.accommodation_target), ""),
+    ]);
+    if !no_add {
+        rows.push(Row::new(format!("Accommodation through the spectacles with the add {add}"), fmt_dioptres(e.accommodation_spectacles_with_add), ""));
+    }
+    rows.push(Row::new(format!("Accommodation {in_target}, no add"), fmt_dioptres(e.accommodation_target), ""));
+    if !no_add {
+        add_rows(&mut rows, r, &add, &target);
+    }
+    if r.meridians.len() > 1 {
+        for m in &r.meridians {
+            rows.push(Row::new(
+                format!("Meridian {}°", m.meridian.unwrap_or(0)),
+                fmt_power(m.distance_power),
+                figures_line(m, &in_target, no_add),
+            ));
+        }
+    }
+    if let Some(a) = &r.amplitude {
+        let amp = a.amplitude;
+        rows.push(Row::new(
+            format!("Amplitude at age {} (Hofstetter)", a.age.years()),
+            format!("{} / {} / {} D", fmt_number(amp.minimum), fmt_number(amp.average), fmt_number(amp.maximum)),
+            "minimum / average / maximum: a population estimate",
+        ));
+        rows.push(tentative_row("Tentative add, minimum amplitude", &a.tentative_from_minimum, r.add));
+        rows.push(tentative_row("Tentative add, average amplitude", &a.tentative_from_average, r.add));
+    }
+    let (main_label, main_value, with) = if no_add {
+        (format!("Accommodation {in_target}"), fmt_dioptres(e.accommodation_target), "no add".to_string())
+    } else {
+        (format!("Equivalent add at {target}"), fmt_power(r.add_at_target), format!("add {add}"))
+    };
+    Card {
+        main_label,
+        main_value,
+        reason: format!("{} with {with}: {}.", r.input, r.summary),
+        rows,
+        warnings: r.warnings.iter().filter(|w| !panel_wide(w.kind)).map(|w| w.message.clone()).collect(),
+        cross: None,
+    }
+}
+
+/// The rows about the add: relief, the equivalent add and the near prescription.
+fn add_rows(rows: &mut Vec<Row>, r: &NearReport, add: &str, target: &str) {
+    let e = &r.equivalent;
+    rows.extend([
         Row::new("Relief the spectacle add gives at the eye", fmt_dioptres(e.relief_at_eye), ""),
         Row::new(
             "Orderable add",
@@ -184,33 +237,6 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
             format!("orderable distance {} with the add {}", r.distance_at_target_ordered, fmt_power(r.add_at_target_rounded)),
         ),
     ]);
-    if r.meridians.len() > 1 {
-        for m in &r.meridians {
-            rows.push(Row::new(
-                format!("Meridian {}°", m.meridian.unwrap_or(0)),
-                fmt_power(m.distance_power),
-                figures_line(m, &in_target),
-            ));
-        }
-    }
-    if let Some(a) = &r.amplitude {
-        let amp = a.amplitude;
-        rows.push(Row::new(
-            format!("Amplitude at age {} (Hofstetter)", a.age.years()),
-            format!("{} / {} / {} D", fmt_number(amp.minimum), fmt_number(amp.average), fmt_number(amp.maximum)),
-            "minimum / average / maximum: a population estimate",
-        ));
-        rows.push(tentative_row("Tentative add, minimum amplitude", &a.tentative_from_minimum, r.add));
-        rows.push(tentative_row("Tentative add, average amplitude", &a.tentative_from_average, r.add));
-    }
-    Card {
-        main_label: format!("Equivalent add at {target}"),
-        main_value: fmt_power(r.add_at_target),
-        reason: format!("{} with add {add}: {}.", r.input, r.summary),
-        rows,
-        warnings: r.warnings.iter().filter(|w| !panel_wide(w.kind)).map(|w| w.message.clone()).collect(),
-        cross: None,
-    }
 }
 
 /// Two radio buttons for a yes/no choice: `first` when `signal` is false,
@@ -253,8 +279,13 @@ pub fn NearPanel() -> impl IntoView {
         };
         let report = near_report(&input)?;
         let card = near_card(&input, &report, near.inches.get());
-        let result = format!("add {} at {} (near {})", fmt_power(report.add_at_target), plane_words(target), report.near_at_target);
-        let order = format!("{} add {}", report.distance_at_target_ordered, fmt_power(report.add_at_target_rounded));
+        let (result, order) = if v.add == Add::NONE {
+            let accommodation = fmt_dioptres(report.equivalent.accommodation_target);
+            (format!("no add; accommodation {accommodation} at {}", plane_words(target)), report.distance_at_target_ordered.to_string())
+        } else {
+            let result = format!("add {} at {} (near {})", fmt_power(report.add_at_target), plane_words(target), report.near_at_target);
+            (result, format!("{} add {}", report.distance_at_target_ordered, fmt_power(report.add_at_target_rounded)))
+        };
         Ok((card, summary(eye, &rx, result, Some(order))))
     });
 
@@ -332,6 +363,21 @@ mod tests {
 
     fn value<'a>(card: &'a Card, label: &str) -> &'a str {
         &card.rows.iter().find(|r| r.label == label).unwrap_or_else(|| panic!("no row {label}: {:?}", card.rows)).value
+    }
+
+    #[test]
+    fn without_an_add_the_card_leads_with_accommodation_and_leaves_out_the_add_rows() {
+        // N1 [textbook] of shared/optics-notes.md: −6.00 @ 12 mm, 40 cm from the lens: 2.4272 D in contact lenses.
+        let c = card(Rx::sphere_only(-6.0).unwrap(), 0.0, Some(50));
+        assert_eq!((c.main_label.as_str(), c.main_value.as_str()), ("Accommodation in contact lenses", "2.43 D"));
+        assert!(c.reason.starts_with("-6.00 DS with no add: "), "{}", c.reason);
+        for gone in ["Orderable add", "Relief the spectacle add gives at the eye", "Near prescription, orderable"] {
+            assert!(c.rows.iter().all(|r| r.label != gone), "{gone} should not be shown without an add");
+        }
+        assert!(c.rows.iter().any(|r| r.label == "Tentative add, average amplitude"), "an age still gives tentative adds");
+        let with = card(Rx::sphere_only(-6.0).unwrap(), 2.5, None);
+        assert_eq!(with.main_label, "Equivalent add at the cornea (contact lens)");
+        assert!(with.rows.iter().any(|r| r.label == "Orderable add"));
     }
 
     #[test]

@@ -168,6 +168,12 @@ test('copy as text puts trade notation on the clipboard; save reports success; c
   // V1 [textbook]: −4.00 → −3.8168 → −3.82.
   assert.match(text, /L .*-3\.82 DS/);
   assert.match(text, /not a prescription/);
+  await page.getByRole('button', { name: 'Copy link' }).click();
+  await expectText(page.getByRole('status').filter({ hasText: 'Copied the link' }), 'Copied the link');
+  const link = new URL(await page.evaluate(() => navigator.clipboard.readText()));
+  assert.equal(link.pathname, '/vertex');
+  assert.equal(link.searchParams.get('r'), '-8.00 -2.00 x180');
+  assert.equal(link.searchParams.get('l'), '-4.00');
   await page.getByRole('button', { name: 'Save to history' }).click();
   await expectText(page.locator('.save-bar [role="status"]'), 'Saved');
   await expectText(page.getByRole('complementary', { name: 'Cautions' }), 'not a prescription', 'corneal vertex');

@@ -1,4 +1,4 @@
-//! Copy the calculation as plain text, or save it (with an optional label)
+//! Copy the calculation as plain text or as its link, or save it (with an optional label)
 //! to the on-device history.
 
 use crate::history::{History, SaveRequest};
@@ -42,6 +42,14 @@ pub fn SaveBar(
             status.set(if ok { "Copied as text.".into() } else { "The browser did not allow copying; select the result text instead.".into() });
         });
     };
+    // An installed app has no address bar: the link to this calculation is copied from here.
+    let copy_link = move |_| {
+        let Some(href) = web_sys::window().and_then(|w| w.location().href().ok()) else { return };
+        leptos::task::spawn_local(async move {
+            let ok = copy_to_clipboard(href).await;
+            status.set(if ok { "Copied the link to this calculation.".into() } else { "The browser did not allow copying.".into() });
+        });
+    };
     let label_id = format!("{id_prefix}-label");
     let hint_id = format!("{id_prefix}-label-hint");
     view! {
@@ -56,6 +64,7 @@ pub fn SaveBar(
             <div class="actions">
                 <button type="submit" class="button primary">"Save to history"</button>
                 <button type="button" class="button" on:click=copy>"Copy as text"</button>
+                <button type="button" class="button" on:click=copy_link>"Copy link"</button>
             </div>
             <p class="status" role="status">{move || status.get()}</p>
         </form>

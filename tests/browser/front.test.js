@@ -180,3 +180,24 @@ test('the connection indicator says when the device is offline', async () => {
   await p.locator('.connection').getByText('Online').waitFor();
   await context.close();
 });
+
+test('printing keeps the inputs, results and cautions in black on white, without navigation or buttons, in either theme', async () => {
+  const { context, page: p } = await page({ colorScheme: 'dark' });
+  await p.goto(server.url(`vertex?${RX}`));
+  await waitForApp(p);
+  // C1 [textbook]: −8.00 −2.00 ×180 at 12 mm → −7.30 −1.63 ×180 at the cornea.
+  await p.getByRole('region', { name: 'Right eye result' }).getByText('-7.30 -1.63 ×180').first().waitFor();
+  await p.emulateMedia({ media: 'print' });
+  const look = await p.evaluate(() => ({
+    bg: getComputedStyle(document.body).backgroundColor,
+    ink: getComputedStyle(document.body).color,
+  }));
+  assert.deepEqual(look, { bg: 'rgb(255, 255, 255)', ink: 'rgb(0, 0, 0)' });
+  for (const hidden of [p.locator('nav.destinations'), p.getByRole('button', { name: 'Save to history' }), p.getByRole('button', { name: 'Copy link' })]) {
+    assert.equal(await hidden.first().isVisible(), false);
+  }
+  for (const shown of [p.getByRole('region', { name: 'Right eye result' }), p.getByLabel('Right prescription', { exact: true }), p.locator('.cautions')]) {
+    assert.ok(await shown.first().isVisible());
+  }
+  await context.close();
+});

@@ -39,7 +39,7 @@ impl Num {
         } else {
             text
         };
-        text.parse::<f64>().unwrap_or(f64::INFINITY)
+        crate::decimal::read_decimal(&text).unwrap_or(f64::INFINITY)
     }
 
     pub fn value(&self) -> f64 {

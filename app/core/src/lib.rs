@@ -46,6 +46,7 @@
 //! | prescription, transposition | [`Rx`] | `rx.rs` |
 //! | principal meridians | [`PowerCross`], [`Meridian`] | `meridians.rs` |
 //! | power vectors | [`PowerVector`] | `vectors.rs` |
+//! | decimal numbers in text (no std float parser: size) | [`read_decimal`] | `decimal.rs` |
 //! | parsing typed text | [`parse_rx`], [`Rx::from_fields`], [`parse_sphere_field`], [`parse_cylinder_field`], [`parse_axis_field`], [`parse_vertex_mm`], [`parse_reading_distance`], [`parse_reading_inches`], [`parse_add`], [`parse_age`] | `parse.rs`, `lex.rs` |
 //! | trade notation out | `Display for Rx`, [`fmt_power`], [`fmt_sphere`], [`fmt_number`], [`fmt_dioptres`], [`fmt_length`] | `format.rs` |
 //! | vertex | [`compensate`], [`compensate_power`], [`effective_power`] | `vertex.rs` |
@@ -136,6 +137,7 @@
 #![warn(missing_docs)]
 
 mod amplitude;
+mod decimal;
 mod editing;
 mod equivalent;
 mod error;
@@ -157,6 +159,7 @@ mod vectors;
 mod vertex;
 mod warnings;
 
+pub use decimal::read_decimal;
 pub use amplitude::{amplitude_reliable, hofstetter, tentative_add, Amplitude, TentativeAdd};
 pub use editing::{step_text, toggle_sign, StepKind};
 pub use equivalent::{

@@ -15,7 +15,7 @@ fn number(text: &str) -> Option<f64> {
     if t.is_empty() || t.starts_with(['-', '\u{2212}', '\u{2013}']) {
         return None;
     }
-    t.trim_start_matches('+').parse::<f64>().ok().filter(|x| x.is_finite())
+    crate::decimal::read_decimal(t.trim_start_matches('+')).filter(|x| x.is_finite())
 }
 
 /// A cylinder limit in dioptres, 0 to 10 (`0.75`, `0,75 D`).

@@ -256,3 +256,48 @@ proptest! {
         prop_assert!((n.accommodation_target_with_rounded_add - n.accommodation_spectacles_with_add).abs() < 1e-9);
     }
 }
+
+// `read_decimal` against the standard library's parser (the reference for
+// correctly rounded decimal-to-binary conversion, IEEE 754 §5.12).
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(2048))]
+
+    #[test]
+    fn decimals_of_up_to_15_digits_read_exactly_as_the_standard_parser(
+        sign in prop_oneof![Just(""), Just("-"), Just("+")],
+        int in "[0-9]{0,8}",
+        frac in proptest::option::of("[0-9]{0,7}"),
+        exp in proptest::option::of(-8i32..=8),
+    ) {
+        prop_assume!(!int.is_empty() || frac.as_deref().is_some_and(|f| !f.is_empty()));
+        let mut text = format!("{sign}{int}");
+        if let Some(f) = &frac {
+            text.push('.');
+            text.push_str(f);
+        }
+        if let Some(e) = exp {
+            text.push_str(&format!("e{e}"));
+        }
+        let std: f64 = text.parse().unwrap();
+        prop_assert_eq!(read_decimal(&text).map(f64::to_bits), Some(std.to_bits()), "{}", text);
+    }
+
+    #[test]
+    fn long_decimals_read_within_a_few_units_in_the_last_place(
+        int in "[1-9][0-9]{0,30}",
+        frac in "[0-9]{0,30}",
+        exp in -250i32..=250,
+    ) {
+        let text = format!("{int}.{frac}e{exp}");
+        let std: f64 = text.parse().unwrap();
+        let ours = read_decimal(&text).unwrap();
+        prop_assert!(ours.to_bits().abs_diff(std.to_bits()) <= 8, "{}: {:e} vs {:e}", text, ours, std);
+    }
+
+    #[test]
+    fn anything_the_standard_parser_refuses_is_refused(text in "[-+.eE0-9x ]{0,8}") {
+        // Acceptance only: the values are compared by the two tests above.
+        let std = text.parse::<f64>().ok().filter(|x| x.is_finite());
+        prop_assert_eq!(read_decimal(&text).filter(|x| x.is_finite()).is_some(), std.is_some(), "{}", text);
+    }
+}

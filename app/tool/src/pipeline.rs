@@ -1,4 +1,4 @@
-//! The build: wasm target → cargo → wasm-bindgen → (wasm-opt) → hashed static folder.
+//! The build: wasm target → cargo → wasm-bindgen → (wasm-opt, terser) → hashed static folder.
 
 use crate::{assets, sizes, Options};
 use std::path::{Path, PathBuf};
@@ -29,15 +29,24 @@ pub fn build(root: &Path, opts: &Options) -> Result<(), String> {
         // Without the default module path the page cannot find its wasm.
         .omit_default_module_path(false)
         .debug(false)
-        .keep_debug(false)
+        .keep_debug(std::env::var_os("LENSPLANE_NAMES").is_some())
         .typescript(false);
     bindgen.generate(&bindgen_dir).map_err(|e| format!("wasm-bindgen failed: {e}"))?;
 
     let wasm_out = bindgen_dir.join("lensplane_bg.wasm");
+    if let Some(dest) = std::env::var_os("LENSPLANE_NAMES") {
+        let _ = std::fs::copy(&wasm_out, dest);
+    }
     if opts.optimise {
         match find_wasm_opt(root) {
             Some(tool) => optimise(&tool, &wasm_out)?,
             None => println!("lensplane: no working wasm-opt (npm binaryen ≥ {MIN_WASM_OPT}); shipping the unoptimised wasm"),
+        }
+        let terser = root.join("tests/node_modules/.bin/terser");
+        if terser.exists() {
+            minify_glue(&terser, &bindgen_dir.join("lensplane.js"))?;
+        } else {
+            println!("lensplane: no terser in tests/node_modules; shipping the glue unminified");
         }
     }
 
@@ -121,8 +130,9 @@ fn wasm_opt_version(tool: &Path) -> Option<u32> {
 
 fn find_wasm_opt(root: &Path) -> Option<PathBuf> {
     let local = root.join("tests/node_modules/.bin/wasm-opt");
-    if !local.exists() && root.join("tests/package-lock.json").exists() {
-        println!("lensplane: installing npm packages in tests/ from the lockfile (for wasm-opt)");
+    let complete = local.exists() && root.join("tests/node_modules/.bin/terser").exists();
+    if !complete && root.join("tests/package-lock.json").exists() {
+        println!("lensplane: installing npm packages in tests/ from the lockfile (for wasm-opt and terser)");
         let ok = Command::new("npm")
             .current_dir(root.join("tests"))
             .args(["ci", "--no-audit", "--no-fund"])
@@ -160,6 +170,19 @@ fn optimise(tool: &Path, wasm: &Path) -> Result<(), String> {
         "wasm-opt",
     )?;
     std::fs::rename(&tmp, wasm).map_err(|e| e.to_string())
+}
+
+/// Minifies the wasm-bindgen glue with npm's terser (about −2 KB gzip). An
+/// ES module: its exports (`default`, `initSync` and the classes) keep their
+/// names.
+fn minify_glue(terser: &Path, glue: &Path) -> Result<(), String> {
+    println!("lensplane: minifying the wasm-bindgen glue with {}", terser.display());
+    let tmp = glue.with_extension("min.js");
+    run(
+        Command::new(terser).arg(glue).arg("-o").arg(&tmp).args(["--module", "--compress", "passes=2", "--mangle"]),
+        "terser",
+    )?;
+    std::fs::rename(&tmp, glue).map_err(|e| e.to_string())
 }
 
 fn default_build_id(root: &Path) -> String {

@@ -1,5 +1,6 @@
 # Regenerate: python3 draw_icons.py, then screenshot each *.html with headless Chromium at its size
-# (see DEVELOPERS.md), then shrink each with `pngquant --quality=70-95 --speed 1` and `optipng -o7`. The PNGs in ../icons are the committed output.
+# (see DEVELOPERS.md), then shrink each to 12 colours with `pngquant 12 --speed 1` and `optipng -o7`. The PNGs in ../icons are the committed output;
+# the 192 px maskable render is not shipped (the manifest needs 192 and 512 px icons and one maskable, 512 px).
 # Draws Lensplane's icon: a lens and the plane it moves to, with a ray crossing both.
 def svg(size_frame, maskable):
     # All coordinates on a 512 grid; the maskable version keeps content in the 80% safe circle.

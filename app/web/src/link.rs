@@ -128,11 +128,16 @@ impl Query {
     /// assert_eq!(q.encode(&["r", "to"]), "r=%2B2.00%20-1.00%20%C3%9790&to=0");
     /// ```
     pub fn encode(&self, keys: &[&str]) -> String {
-        let rank = |k: &str| keys.iter().position(|x| *x == k).unwrap_or(keys.len());
-        let mut pairs: Vec<&(String, String)> = self.0.iter().collect();
-        pairs.sort_by_key(|(k, _)| rank(k));
-        pairs
+        // In the order of `keys`, then the rest as they come (a stable sort by
+        // rank, without a sort instantiation in the wasm).
+        let known = keys
             .iter()
+            .enumerate()
+            .filter(|(i, k)| !keys[..*i].contains(k))
+            .flat_map(|(_, k)| self.0.iter().filter(move |(pk, _)| pk == k));
+        let rest = self.0.iter().filter(|(k, _)| !keys.contains(&k.as_str()));
+        known
+            .chain(rest)
             .map(|(k, v)| format!("{}={}", utf8_percent_encode(k, VALUE), utf8_percent_encode(v, VALUE)))
             .collect::<Vec<_>>()
             .join("&")
@@ -187,6 +192,13 @@ mod tests {
             assert_eq!(Destination::from_path(&format!("{}/", d.path())), Some(d));
         }
         assert_eq!(Destination::from_path("/elsewhere"), None);
+    }
+
+    #[test]
+    fn keys_encode_in_the_given_order_then_the_rest_as_they_came() {
+        let q = Query::default().with("z", "1").with("to", "0").with("y", "2").with("r", "-1");
+        assert_eq!(q.encode(&["r", "from", "to"]), "r=-1&to=0&z=1&y=2");
+        assert_eq!(q.encode(&[]), "z=1&to=0&y=2&r=-1");
     }
 
     #[test]

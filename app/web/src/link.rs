@@ -54,6 +54,17 @@ impl Destination {
         Destination::ALL.into_iter().find(|d| d.path() == trimmed)
     }
 
+    /// What a full path names below the deploy `base` ("" or "/sub"):
+    /// `None` for the app's root (which opens the vertex panel), `Some(None)`
+    /// for a path that is not a destination.
+    pub fn route(path: &str, base: &str) -> Option<Option<Destination>> {
+        let Some(rest) = path.strip_prefix(base) else { return Some(None) };
+        if rest.is_empty() || rest == "/" {
+            return None;
+        }
+        Some(Destination::from_path(rest))
+    }
+
     /// Its name in the navigation and in the history.
     pub fn label(self) -> &'static str {
         match self {
@@ -206,5 +217,17 @@ mod tests {
         let q = Query::parse("?=&&r&%zz=%e2%28&to=%");
         assert_eq!(q.get("r"), None);
         assert_eq!(q.get("to"), Some("%"));
+    }
+
+    #[test]
+    fn routes_are_read_below_the_deploy_base() {
+        assert_eq!(Destination::route("/", ""), None);
+        assert_eq!(Destination::route("/vertex", ""), Some(Some(Destination::Vertex)));
+        assert_eq!(Destination::route("/near/", ""), Some(Some(Destination::Near)));
+        assert_eq!(Destination::route("/clinic/lensplane/", "/clinic/lensplane"), None);
+        assert_eq!(Destination::route("/clinic/lensplane", "/clinic/lensplane"), None);
+        assert_eq!(Destination::route("/clinic/lensplane/history", "/clinic/lensplane"), Some(Some(Destination::History)));
+        assert_eq!(Destination::route("/elsewhere", ""), Some(None));
+        assert_eq!(Destination::route("/other/vertex", "/clinic"), Some(None));
     }
 }

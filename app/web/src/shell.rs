@@ -7,8 +7,8 @@ use crate::panels::{AboutPanel, EquivalentPanel, HistoryBanner, HistoryPanel, Ne
 use crate::sync::{carried_href, Base, Carry};
 use crate::theme::ThemeButton;
 use leptos::prelude::*;
-use leptos_router::components::{Redirect, Route, Router, Routes, A};
-use leptos_router::path;
+use leptos_router::components::{Redirect, Router, A};
+use leptos_router::hooks::use_location;
 
 /// Where the app is deployed ("" or "/sub"), as recorded by boot.js.
 fn deploy_base() -> String {
@@ -47,6 +47,28 @@ fn ConnectionBadge() -> impl IntoView {
     }
 }
 
+/// The page the router's location names. Lensplane's destinations are five
+/// fixed paths with no nesting and no route data, so the location is matched
+/// here with [`Destination::route`] instead of through `<Routes>`, whose
+/// general machinery (nested matching, async route data) cost about 40 KB
+/// gzip of the shell. A panel is rebuilt only when the destination changes.
+#[component]
+fn Page(base: String) -> impl IntoView {
+    let location = use_location();
+    let route = Memo::new(move |_| location.pathname.with(|p| Destination::route(p, &base)));
+    move || match route.get() {
+        None => view! { <Redirect path="vertex"/> }.into_any(),
+        Some(Some(d)) => match d {
+            Destination::Vertex => view! { <VertexPanel/> }.into_any(),
+            Destination::Equivalent => view! { <EquivalentPanel/> }.into_any(),
+            Destination::Near => view! { <NearPanel/> }.into_any(),
+            Destination::History => view! { <HistoryPanel/> }.into_any(),
+            Destination::About => view! { <AboutPanel/> }.into_any(),
+        },
+        Some(None) => view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }.into_any(),
+    }
+}
+
 #[component]
 pub fn App() -> impl IntoView {
     let base = deploy_base();
@@ -56,6 +78,7 @@ pub fn App() -> impl IntoView {
     provide_context(Carry(carry));
     let link_base = base.clone();
     let about_base = base.clone();
+    let page_base = base.clone();
     let links = move || {
         Destination::NAV
             .into_iter()
@@ -84,14 +107,7 @@ pub fn App() -> impl IntoView {
             <nav class="destinations" aria-label="Calculators">{links}</nav>
             <HistoryBanner/>
             <main id="main" tabindex="-1">
-                <Routes fallback=|| view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }>
-                    <Route path=path!("/") view=|| view! { <Redirect path="vertex"/> }/>
-                    <Route path=path!("/vertex") view=VertexPanel/>
-                    <Route path=path!("/equivalent") view=EquivalentPanel/>
-                    <Route path=path!("/near") view=NearPanel/>
-                    <Route path=path!("/history") view=HistoryPanel/>
-                    <Route path=path!("/about") view=AboutPanel/>
-                </Routes>
+                <Page base=page_base/>
             </main>
             <footer class="colophon">
                 <p>"Lensplane computes starting points, not prescriptions. Follow local regulations and licensed practice. Everything stays on this device."</p>

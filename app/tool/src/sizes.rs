@@ -4,11 +4,9 @@ use crate::assets::Shipped;
 use flate2::{write::GzEncoder, Compression};
 use std::io::Write;
 
-/// The whole shell must stay at or under this many gzip bytes. The first
-/// budget was 250,000; with all four destinations the measured shell is
-/// ~303 KB (Leptos view code is most of the wasm; see README "Sizes"), so
-/// the enforced figure is 310,000 until the size work brings it back down.
-pub const BUDGET_GZIP: usize = 310_000;
+/// The whole shell must stay at or under this many gzip bytes (the
+/// foundation's budget; README "Sizes" has the measured figures).
+pub const BUDGET_GZIP: usize = 250_000;
 
 fn gzip_len(bytes: &[u8]) -> usize {
     let mut enc = GzEncoder::new(Vec::new(), Compression::best());

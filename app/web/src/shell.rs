@@ -7,8 +7,10 @@ use crate::panels::{AboutPanel, EquivalentPanel, HistoryBanner, HistoryPanel, Ne
 use crate::sync::{carried_href, Base, Carry};
 use crate::theme::ThemeButton;
 use leptos::prelude::*;
-use leptos_router::components::{Redirect, Router, A};
-use leptos_router::hooks::use_location;
+use leptos_router::components::Router;
+use leptos_router::hooks::{use_location, use_navigate};
+use leptos_router::location::{BrowserUrl, LocationProvider};
+use leptos_router::NavigateOptions;
 
 /// Where the app is deployed ("" or "/sub"), as recorded by boot.js.
 fn deploy_base() -> String {
@@ -55,17 +57,42 @@ fn ConnectionBadge() -> impl IntoView {
 #[component]
 fn Page(base: String) -> impl IntoView {
     let location = use_location();
+    let provider = use_context::<BrowserUrl>();
+    let navigate = use_navigate();
+    let root = format!("{base}/vertex");
     let route = Memo::new(move |_| location.pathname.with(|p| Destination::route(p, &base)));
-    move || match route.get() {
-        None => view! { <Redirect path="vertex"/> }.into_any(),
-        Some(Some(d)) => match d {
-            Destination::Vertex => view! { <VertexPanel/> }.into_any(),
-            Destination::Equivalent => view! { <EquivalentPanel/> }.into_any(),
-            Destination::Near => view! { <NearPanel/> }.into_any(),
-            Destination::History => view! { <HistoryPanel/> }.into_any(),
-            Destination::About => view! { <AboutPanel/> }.into_any(),
-        },
-        Some(None) => view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }.into_any(),
+    move || {
+        let page = match route.get() {
+            None => {
+                // The root opens the vertex panel in place of itself (back does not return to it).
+                navigate(&root, NavigateOptions { replace: true, resolve: false, ..NavigateOptions::default() });
+                ().into_any()
+            }
+            Some(Some(d)) => match d {
+                Destination::Vertex => view! { <VertexPanel/> }.into_any(),
+                Destination::Equivalent => view! { <EquivalentPanel/> }.into_any(),
+                Destination::Near => view! { <NearPanel/> }.into_any(),
+                Destination::History => view! { <HistoryPanel/> }.into_any(),
+                Destination::About => view! { <AboutPanel/> }.into_any(),
+            },
+            Some(None) => view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }.into_any(),
+        };
+        // The router writes a new path into the address bar only once the
+        // page for it is ready, as `<Routes>` would tell it.
+        if let Some(p) = &provider {
+            p.ready_to_complete();
+        }
+        page
+    }
+}
+
+/// The skip link moves focus to the main region itself: the router would
+/// otherwise take the click for a navigation and leave the focus where it was.
+fn skip_to_main(ev: leptos::ev::MouseEvent) {
+    ev.prevent_default();
+    if let Some(main) = document().get_element_by_id("main").and_then(|m| wasm_bindgen::JsCast::dyn_into::<web_sys::HtmlElement>(m).ok()) {
+        let _ = main.focus();
+        main.scroll_into_view();
     }
 }
 
@@ -83,16 +110,19 @@ pub fn App() -> impl IntoView {
         Destination::NAV
             .into_iter()
             .map(|d| {
-                // The router does not add its base to absolute links.
+                // Plain links: the router follows them in place; the base is ours to add.
                 let b = link_base.clone();
+                let route_base = link_base.clone();
                 let href = move || format!("{b}{}", carried_href(d, &carry.get()));
-                view! { <A href=href>{d.label()}</A> }
+                let here = use_location();
+                let current = move || here.pathname.with(|p| Destination::route(p, &route_base) == Some(Some(d))).then_some("page");
+                view! { <a href=href aria-current=current>{d.label()}</a> }
             })
             .collect_view()
     };
     view! {
         <Router base=base>
-            <a class="skip-link" href="#main">"Skip to the calculator"</a>
+            <a class="skip-link" href="#main" on:click=skip_to_main>"Skip to the calculator"</a>
             <header class="masthead">
                 <span class="brand">
                     <img src="icons/icon.svg" alt="" width="28" height="28"/>
@@ -101,7 +131,7 @@ pub fn App() -> impl IntoView {
                 <span class="masthead-tools">
                     <ConnectionBadge/>
                     <ThemeButton/>
-                    <A href=format!("{about_base}/about")>"About"</A>
+                    <a href=format!("{about_base}/about")>"About"</a>
                 </span>
             </header>
             <nav class="destinations" aria-label="Calculators">{links}</nav>

@@ -150,6 +150,23 @@ test('filter by text (label, power) and by panel, kept in the link', async () =>
   await context.close();
 });
 
+test('the filter ignores case in any script, and reads x as ×', async () => {
+  const { context, page } = await fresh();
+  const list = makeEntries(3);
+  list[0].l = 'Salle Émeraude';
+  list[1].l = 'КАБИНЕТ 4';
+  await seeded(page, storedLayout(list));
+  await count(page).getByText('3 entries.').waitFor();
+  for (const [typed, matches] of [['salle ém', 1], ['ÉMERAUDE', 1], ['кабинет', 1], ['SALLE', 1]]) {
+    await page.getByLabel('Filter').fill(typed);
+    await count(page).getByText(`${matches} of 3 entries match.`).waitFor();
+  }
+  // Entry 1 is -0.25 -0.25 ×5 in the fixtures: typed with x for ×.
+  await page.getByLabel('Filter').fill('-0.25 x5');
+  await count(page).getByText('1 of 3 entries match.').waitFor();
+  await context.close();
+});
+
 test('corrupt stored data: the app starts and computes, says so, and keeps the data aside for export', async () => {
   const { context, page } = await fresh();
   const errors = watchErrors(page);

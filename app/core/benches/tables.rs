@@ -14,10 +14,7 @@ fn table_entries() -> Vec<(f64, VertexDistance)> {
     let mut out = Vec::new();
     for q in -80..=80 {
         for mm in 8..=20 {
-            out.push((
-                f64::from(q) * 0.25,
-                VertexDistance::from_mm(f64::from(mm)).unwrap(),
-            ));
+            out.push((f64::from(q) * 0.25, VertexDistance::from_mm(f64::from(mm)).unwrap()));
         }
     }
     out

@@ -19,8 +19,8 @@
 
 /// 10^0 … 10^22: every one is exact in `f64`.
 const POW10: [f64; 23] = [
-    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
-    1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
+    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20,
+    1e21, 1e22,
 ];
 
 /// The most significant digits kept (19 always fit in a `u64`).
@@ -110,7 +110,9 @@ pub fn read_decimal(text: &str) -> Option<f64> {
             return None;
         }
         // Beyond ±400 every `m` is infinite or zero, so larger exponents need not be held.
-        let e = digits.iter().fold(0i64, |e, d| (e * 10 + i64::from(d - b'0')).min(100_000));
+        let e = digits
+            .iter()
+            .fold(0i64, |e, d| (e * 10 + i64::from(d - b'0')).min(100_000));
         exp += if exp_negative { -e } else { e };
     }
     let magnitude = scale(m, exp.clamp(-400, 400));
@@ -152,9 +154,27 @@ mod tests {
     #[test]
     fn same_as_the_standard_parser_for_typed_figures() {
         for text in [
-            "0", "-0", "+0.00", "0.125", "2.675", "-8.00", "-2.75", "0.1", "0.3", "12", "13.5",
-            "40.64", "0.0000001", "123456789012345", "9007199254740993", "00012.5000", "1e22", "1e-22",
-            "1e-400", "1e400", "1e99999999999999999999",
+            "0",
+            "-0",
+            "+0.00",
+            "0.125",
+            "2.675",
+            "-8.00",
+            "-2.75",
+            "0.1",
+            "0.3",
+            "12",
+            "13.5",
+            "40.64",
+            "0.0000001",
+            "123456789012345",
+            "9007199254740993",
+            "00012.5000",
+            "1e22",
+            "1e-22",
+            "1e-400",
+            "1e400",
+            "1e99999999999999999999",
         ] {
             let ours = read_decimal(text).unwrap();
             let std: f64 = text.parse().unwrap();
@@ -164,9 +184,17 @@ mod tests {
 
     #[test]
     fn extreme_input_is_within_a_few_units_in_the_last_place() {
-        for text in ["1.7976931348623157e308", "4.9e-324", "2.2250738585072014e-308", "0.30000000000000000000000000001"] {
+        for text in [
+            "1.7976931348623157e308",
+            "4.9e-324",
+            "2.2250738585072014e-308",
+            "0.30000000000000000000000000001",
+        ] {
             let (ours, std) = (read_decimal(text).unwrap(), text.parse::<f64>().unwrap());
-            assert!(ours.to_bits().abs_diff(std.to_bits()) <= 4, "{text}: {ours:e} vs {std:e}");
+            assert!(
+                ours.to_bits().abs_diff(std.to_bits()) <= 4,
+                "{text}: {ours:e} vs {std:e}"
+            );
         }
     }
 }

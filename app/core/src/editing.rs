@@ -84,7 +84,13 @@ pub fn step_text(text: &str, kind: StepKind, up: bool) -> Option<String> {
             } else {
                 axis / step * step
             };
-            let next = if next > 180 { next - 180 } else if next == 0 { 180 } else { next };
+            let next = if next > 180 {
+                next - 180
+            } else if next == 0 {
+                180
+            } else {
+                next
+            };
             Some(next.to_string())
         }
         StepKind::Sphere | StepKind::Cylinder | StepKind::Add => {
@@ -108,7 +114,11 @@ pub fn step_text(text: &str, kind: StepKind, up: bool) -> Option<String> {
             if next.abs() > limit + 1e-9 || (kind == StepKind::Add && !(0.0..=ADD_MAX + 1e-9).contains(&next)) {
                 return None;
             }
-            Some(if kind == StepKind::Sphere { fmt_sphere(next) } else { fmt_power(next) })
+            Some(if kind == StepKind::Sphere {
+                fmt_sphere(next)
+            } else {
+                fmt_power(next)
+            })
         }
     }
 }

@@ -20,11 +20,7 @@ use crate::{compensate, Rx, VertexDistance};
 /// assert!((se - -8.1139).abs() < 1e-4);
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
-pub fn spherical_equivalent_at(
-    rx: &Rx,
-    from: VertexDistance,
-    to: VertexDistance,
-) -> Result<f64, Error> {
+pub fn spherical_equivalent_at(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Result<f64, Error> {
     Ok(compensate(rx, from, to)?.spherical_equivalent())
 }
 
@@ -61,10 +57,7 @@ impl SubstituteSettings {
     /// ```
     pub fn validate(&self) -> Result<(), Error> {
         let ok = |x: f64, max: f64| x.is_finite() && (0.0..=max).contains(&x);
-        if ok(self.max_cylinder, 10.0)
-            && ok(self.max_cylinder_oblique_or_against, 10.0)
-            && ok(self.max_ratio, 1.0)
-        {
+        if ok(self.max_cylinder, 10.0) && ok(self.max_cylinder_oblique_or_against, 10.0) && ok(self.max_ratio, 1.0) {
             Ok(())
         } else {
             Err(Error::new(
@@ -223,15 +216,21 @@ pub fn assess_substitute(rx: &Rx, settings: &SubstituteSettings) -> SubstituteAs
         match (cyl_ok, ratio_ok) {
             (true, true) => (
                 Verdict::Suitable,
-                format!("{cyl_part} and {ratio_part}: a spherical lens should do; {} D of astigmatism stays uncorrected", fmt_number(cyl)),
+                format!(
+                    "{cyl_part} and {ratio_part}: a spherical lens should do; {} D of astigmatism stays uncorrected",
+                    fmt_number(cyl)
+                ),
             ),
             (false, false) => (
                 Verdict::Unsuitable,
-                format!("{cyl_part} and {ratio_part}: a spherical lens leaves {} D of astigmatism; prefer a toric lens", fmt_number(cyl)),
+                format!(
+                    "{cyl_part} and {ratio_part}: a spherical lens leaves {} D of astigmatism; prefer a toric lens",
+                    fmt_number(cyl)
+                ),
             ),
             _ => (
                 Verdict::Borderline,
-                format!("{cyl_part}, but {ratio_part}: a spherical lens may do; check acuity with it", ),
+                format!("{cyl_part}, but {ratio_part}: a spherical lens may do; check acuity with it",),
             ),
         }
     };

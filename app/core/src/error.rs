@@ -113,15 +113,9 @@ pub(crate) enum ErrorKind {
     /// A number with two decimal separators, like "2,5,90".
     Ambiguous { text: String },
     /// A vertex distance under 3 mm (but not 0).
-    VertexTooShort {
-        typed: String,
-        suggestion: Option<String>,
-    },
+    VertexTooShort { typed: String, suggestion: Option<String> },
     /// A reading distance with no unit where the unit matters.
-    NeedsUnit {
-        typed: String,
-        suggestion: Option<String>,
-    },
+    NeedsUnit { typed: String, suggestion: Option<String> },
     /// A negative add.
     AddNotPlus,
     /// An age with a fraction.
@@ -134,11 +128,7 @@ pub(crate) enum ErrorKind {
 
 impl Error {
     pub(crate) fn new(kind: ErrorKind, field: Field, position: Option<usize>) -> Error {
-        Error {
-            kind,
-            field,
-            position,
-        }
+        Error { kind, field, position }
     }
 
     /// The input (or result) this error concerns.
@@ -209,10 +199,7 @@ impl fmt::Display for Error {
             }
             ErrorKind::Unexpected { text } => write!(f, "unexpected \"{text}\""),
             ErrorKind::Ambiguous { text } => {
-                write!(
-                    f,
-                    "\"{text}\" is ambiguous: use one decimal point per number"
-                )
+                write!(f, "\"{text}\" is ambiguous: use one decimal point per number")
             }
             ErrorKind::VertexTooShort { typed, suggestion } => {
                 write!(f, "vertex distance {typed} mm is under 3 mm")?;

@@ -139,12 +139,7 @@ impl fmt::Display for Rx {
                 write!(f, "{sphere} DS")
             }
         } else {
-            write!(
-                f,
-                "{sphere} {} \u{d7}{}",
-                fmt_power(self.cylinder()),
-                self.axis()
-            )
+            write!(f, "{sphere} {} \u{d7}{}", fmt_power(self.cylinder()), self.axis())
         }
     }
 }

@@ -34,11 +34,7 @@ impl Num {
             Some(f) if !f.is_empty() => format!("{}.{}", self.int, f),
             _ => self.int.clone(),
         };
-        let text = if text.is_empty() {
-            "0".to_string()
-        } else {
-            text
-        };
+        let text = if text.is_empty() { "0".to_string() } else { text };
         crate::decimal::read_decimal(&text).unwrap_or(f64::INFINITY)
     }
 
@@ -89,8 +85,8 @@ pub(crate) struct Token {
 
 fn normalise(c: char) -> (char, bool) {
     match c {
-        '\u{2212}' | '\u{2010}' | '\u{2011}' | '\u{2012}' | '\u{2013}' | '\u{2014}'
-        | '\u{2015}' | '\u{FE58}' | '\u{FE63}' | '\u{FF0D}' => ('-', true),
+        '\u{2212}' | '\u{2010}' | '\u{2011}' | '\u{2012}' | '\u{2013}' | '\u{2014}' | '\u{2015}' | '\u{FE58}'
+        | '\u{FE63}' | '\u{FF0D}' => ('-', true),
         '\u{FF0B}' => ('+', false),
         '\u{FF10}'..='\u{FF19}' => (
             char::from_u32(c as u32 - 0xFF10 + u32::from(b'0')).unwrap_or('0'),
@@ -171,8 +167,7 @@ pub(crate) fn lex(text: &str, field: Field) -> Result<Vec<Token>, Error> {
             while let Some(d) = ch(j) {
                 if d.is_ascii_alphabetic() {
                     word.push(d.to_ascii_lowercase());
-                } else if d == '.' && (dotted || ch(j + 1).is_some_and(|e| e.is_ascii_alphabetic()))
-                {
+                } else if d == '.' && (dotted || ch(j + 1).is_some_and(|e| e.is_ascii_alphabetic())) {
                     dotted = true;
                 } else {
                     break;

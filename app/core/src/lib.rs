@@ -159,28 +159,26 @@ mod vectors;
 mod vertex;
 mod warnings;
 
-pub use decimal::read_decimal;
 pub use amplitude::{amplitude_reliable, hofstetter, tentative_add, Amplitude, TentativeAdd};
+pub use decimal::read_decimal;
 pub use editing::{step_text, toggle_sign, StepKind};
 pub use equivalent::{
-    assess_substitute, spherical_equivalent_at, Orientation, SubstituteAssessment,
-    SubstituteSettings, Verdict,
+    assess_substitute, spherical_equivalent_at, Orientation, SubstituteAssessment, SubstituteSettings, Verdict,
 };
 pub use error::{Error, Field};
 pub use format::{fmt_dioptres, fmt_length, fmt_number, fmt_power, fmt_sphere};
 pub use meridians::{Meridian, PowerCross};
 pub use near::{near_figures, NearFigures, NearGeometry};
 pub use parse::{
-    parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance,
-    parse_reading_inches, parse_rx, parse_sphere_field, parse_vertex_mm, Notice, NoticeKind,
-    Parsed,
+    parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance, parse_reading_inches,
+    parse_rx, parse_sphere_field, parse_vertex_mm, Notice, NoticeKind, Parsed,
 };
 pub use report_equivalent::{equivalent_report, EquivalentInput, EquivalentReport};
 pub use report_near::{near_report, AmplitudeReport, NearInput, NearReport};
 pub use report_vertex::{vertex_report, LadderKind, VertexInput, VertexReport};
 pub use rounding::{
-    is_on_step, order_lens, round_meridians, round_separately, round_to_step, Ladder,
-    OrderSettings, OrderedLens, StockRange, TieRule,
+    is_on_step, order_lens, round_meridians, round_separately, round_to_step, Ladder, OrderSettings, OrderedLens,
+    StockRange, TieRule,
 };
 pub use rx::Rx;
 pub use settings_text::{parse_cylinder_limit, parse_ratio_limit};

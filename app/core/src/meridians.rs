@@ -136,11 +136,7 @@ impl PowerCross {
     /// # Ok::<(), lensplane_core::Error>(())
     /// ```
     pub fn to_rx(&self) -> Rx {
-        Rx::raw(
-            self.first.power,
-            self.second.power - self.first.power,
-            self.first.axis,
-        )
+        Rx::raw(self.first.power, self.second.power - self.first.power, self.first.axis)
     }
 
     /// Apply `f` to each meridian's power, keeping directions.
@@ -158,10 +154,7 @@ impl PowerCross {
     }
 
     /// Same, for a fallible `f`.
-    pub(crate) fn try_map_powers(
-        &self,
-        mut f: impl FnMut(f64) -> Result<f64, Error>,
-    ) -> Result<PowerCross, Error> {
+    pub(crate) fn try_map_powers(&self, mut f: impl FnMut(f64) -> Result<f64, Error>) -> Result<PowerCross, Error> {
         Ok(PowerCross::raw(
             Meridian {
                 power: f(self.first.power)?,

@@ -134,12 +134,7 @@ pub struct NearFigures {
 /// assert!((n.add_at_target - 2.4272).abs() < 1e-4);
 /// # Ok::<(), Error>(())
 /// ```
-pub fn near_figures(
-    power: f64,
-    add: f64,
-    g: &NearGeometry,
-    rounded_add: Option<f64>,
-) -> Result<NearFigures, Error> {
+pub fn near_figures(power: f64, add: f64, g: &NearGeometry, rounded_add: Option<f64>) -> Result<NearFigures, Error> {
     let d = g.spectacle_vertex.metres();
     let d2 = g.target.metres();
     let l = g.object_vergence_at_spectacles();

@@ -12,8 +12,8 @@ use crate::error::{Error, ErrorKind, Field};
 use crate::format::{fmt_number, fmt_power};
 use crate::lex::{lex, Num, Sign, Tok, Token};
 use crate::limits::{
-    ADD_MAX, CM_PER_INCH, CYLINDER_LIMIT, CYLINDER_WARN, READING_CM, SPHERE_LIMIT, SPHERE_WARN,
-    VERTEX_MAX_MM, VERTEX_SHORT_MM,
+    ADD_MAX, CM_PER_INCH, CYLINDER_LIMIT, CYLINDER_WARN, READING_CM, SPHERE_LIMIT, SPHERE_WARN, VERTEX_MAX_MM,
+    VERTEX_SHORT_MM,
 };
 use crate::rounding::{is_on_step, round_to_step, TieRule};
 use crate::{Add, Age, ReadingDistance, Rx, VertexDistance};
@@ -62,21 +62,11 @@ pub enum NoticeKind {
 }
 
 fn notice(kind: NoticeKind, field: Field, message: String) -> Notice {
-    Notice {
-        kind,
-        field,
-        message,
-    }
+    Notice { kind, field, message }
 }
 
 fn unexpected(t: &Token, field: Field) -> Error {
-    Error::new(
-        ErrorKind::Unexpected {
-            text: t.raw.clone(),
-        },
-        field,
-        Some(t.start),
-    )
+    Error::new(ErrorKind::Unexpected { text: t.raw.clone() }, field, Some(t.start))
 }
 
 fn word(t: Option<&Token>) -> Option<&str> {
@@ -189,11 +179,7 @@ fn power(t: &Token, num: &Num, role: Role) -> Result<(f64, Vec<Notice>), Error> 
         ));
     }
     if m != 0.0 && matches!(num.sign, Sign::None | Sign::PlusMinus) {
-        return Err(Error::new(
-            ErrorKind::NeedsSign { magnitude: m },
-            field,
-            Some(t.start),
-        ));
+        return Err(Error::new(ErrorKind::NeedsSign { magnitude: m }, field, Some(t.start)));
     }
     let value = num.value() + 0.0;
     let mut notices = reading_notices(num, field, value);
@@ -335,9 +321,7 @@ pub fn parse_rx(text: &str) -> Result<Parsed<Rx>, Error> {
     if matches!(toks.get(i).map(|t| &t.tok), Some(Tok::Slash | Tok::Comma)) {
         i += 1;
     }
-    if word(toks.get(i)).is_some_and(is_cyl_label)
-        && matches!(toks.get(i + 1).map(|t| &t.tok), Some(Tok::Num(_)))
-    {
+    if word(toks.get(i)).is_some_and(is_cyl_label) && matches!(toks.get(i + 1).map(|t| &t.tok), Some(Tok::Num(_))) {
         i += 1;
     }
     let Some(cyl_tok) = toks.get(i) else {
@@ -373,24 +357,14 @@ pub fn parse_rx(text: &str) -> Result<Parsed<Rx>, Error> {
         if is_axis_mark(Some(t)) {
             i += 1;
             match toks.get(i) {
-                Some(
-                    at @ Token {
-                        tok: Tok::Num(n), ..
-                    },
-                ) => {
+                Some(at @ Token { tok: Tok::Num(n), .. }) => {
                     let (a, mut n) = axis(at, n)?;
                     notices.append(&mut n);
                     axis_value = Some(a);
                     i += 1;
                 }
                 Some(other) => return Err(unexpected(other, Field::Axis)),
-                None => {
-                    return Err(Error::new(
-                        ErrorKind::CylinderNeedsAxis,
-                        Field::Axis,
-                        Some(t.start),
-                    ))
-                }
+                None => return Err(Error::new(ErrorKind::CylinderNeedsAxis, Field::Axis, Some(t.start))),
             }
         } else if let Tok::Num(n) = &t.tok {
             if n.sign != Sign::None && n.sign != Sign::Minus {
@@ -447,11 +421,7 @@ fn finish(
             value: Rx::new(sphere, 0.0, 180)?,
             notices,
         }),
-        (false, None) => Err(Error::new(
-            ErrorKind::CylinderNeedsAxis,
-            Field::Axis,
-            cyl_position,
-        )),
+        (false, None) => Err(Error::new(ErrorKind::CylinderNeedsAxis, Field::Axis, cyl_position)),
         (false, Some(a)) => Ok(Parsed {
             value: Rx::new(sphere, cylinder, a)?,
             notices,
@@ -854,10 +824,7 @@ pub fn parse_age(text: &str) -> Result<Parsed<Age>, Error> {
     let toks = lex(text, field)?;
     let (t, n, unit) = single_number(&toks, field)?;
     if let Some(u) = unit {
-        if !matches!(
-            word(Some(u)),
-            Some("y" | "yr" | "yrs" | "year" | "years" | "yo")
-        ) {
+        if !matches!(word(Some(u)), Some("y" | "yr" | "yrs" | "year" | "years" | "yo")) {
             return Err(unexpected(u, field));
         }
     }
@@ -892,8 +859,5 @@ pub fn parse_age(text: &str) -> Result<Parsed<Age>, Error> {
         ));
     };
     let value = Age::new(years).map_err(|e| e.at(t.start))?;
-    Ok(Parsed {
-        value,
-        notices: vec![],
-    })
+    Ok(Parsed { value, notices: vec![] })
 }

@@ -8,9 +8,7 @@ use crate::format::{fmt_number, fmt_power};
 use crate::near::{near_figures, NearFigures, NearGeometry};
 use crate::rounding::{is_on_step, round_meridians, round_to_step, OrderSettings};
 use crate::warnings::{rx_warnings, vertex_warnings, warn, Warning, WarningKind};
-use crate::{
-    compensate, Add, Age, Measured, Meridian, PowerCross, ReadingDistance, Rx, VertexDistance,
-};
+use crate::{compensate, Add, Age, Measured, Meridian, PowerCross, ReadingDistance, Rx, VertexDistance};
 
 /// What the near panel sends for one eye.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -188,7 +186,8 @@ pub fn near_report(input: &NearInput) -> Result<NearReport, Error> {
         warnings.push(warn(
             WarningKind::MultifocalLabels,
             Field::Near,
-            "multifocal contact-lens \"add\" labels are not optical adds: fit by the maker's guide and trial".to_string(),
+            "multifocal contact-lens \"add\" labels are not optical adds: fit by the maker's guide and trial"
+                .to_string(),
         ));
     }
     warnings.push(warn(
@@ -211,16 +210,14 @@ pub fn near_report(input: &NearInput) -> Result<NearReport, Error> {
         warnings.push(warn(
             WarningKind::PopulationEstimate,
             Field::Amplitude,
-            "amplitude by age is a population estimate (Hofstetter): refine with the patient's measured amplitude".to_string(),
+            "amplitude by age is a population estimate (Hofstetter): refine with the patient's measured amplitude"
+                .to_string(),
         ));
         if !amp.reliable {
             warnings.push(warn(
                 WarningKind::AmplitudeUnreliable,
                 Field::Age,
-                format!(
-                    "at age {} the age formulas are least reliable",
-                    amp.age.years()
-                ),
+                format!("at age {} the age formulas are least reliable", amp.age.years()),
             ));
         }
         let low = tentative_add(reading.demand(), amp.amplitude.maximum, tie).half_reserve;
@@ -266,9 +263,7 @@ fn near_summary(se: f64, add: f64, target: VertexDistance, f: &NearFigures) -> S
     } else {
         format!(
             "with the lens at {} mm",
-            fmt_number(target.mm())
-                .trim_end_matches('0')
-                .trim_end_matches('.')
+            fmt_number(target.mm()).trim_end_matches('0').trim_end_matches('.')
         )
     };
     let diff = f.accommodation_target - f.accommodation_spectacles;

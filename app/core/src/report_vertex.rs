@@ -102,12 +102,7 @@ pub(crate) fn vertex_reason(rx: &Rx, shift_m: f64) -> String {
 /// # Ok::<(), Error>(())
 /// ```
 pub fn vertex_report(input: &VertexInput) -> Result<VertexReport, Error> {
-    let VertexInput {
-        rx,
-        from,
-        to,
-        settings,
-    } = input;
+    let VertexInput { rx, from, to, settings } = input;
     settings.validate()?;
     let before = rx.meridians();
     let after = compensate_meridians(&before, *from, *to)?;
@@ -147,12 +142,7 @@ pub fn vertex_report(input: &VertexInput) -> Result<VertexReport, Error> {
         }
         let cyl = round_to_step(exact.cylinder().abs(), 0.25, crate::TieRule::TowardZero);
         if cyl >= settings.toric.smallest() - 1e-9 {
-            toric = choose_toric(
-                &exact,
-                &settings.toric,
-                &settings.contact_lens,
-                settings.tie,
-            )?;
+            toric = choose_toric(&exact, &settings.toric, &settings.contact_lens, settings.tie)?;
             if let Some(t) = &toric {
                 if !t.within_range {
                     warnings.push(warn(

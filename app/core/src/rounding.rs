@@ -4,9 +4,7 @@
 use serde::{Deserialize, Serialize};
 
 use crate::error::{Error, ErrorKind, Field};
-use crate::{
-    compensate_meridians, Meridian, PowerCross, PowerVector, Rx, ToricSettings, VertexDistance,
-};
+use crate::{compensate_meridians, Meridian, PowerCross, PowerVector, Rx, ToricSettings, VertexDistance};
 
 /// How to round a value that lies exactly halfway between two steps.
 /// Language defaults (banker's rounding, half away from zero) would decide
@@ -198,10 +196,7 @@ pub struct StockRange {
 
 impl Default for StockRange {
     fn default() -> StockRange {
-        StockRange {
-            min: -12.0,
-            max: 8.0,
-        }
+        StockRange { min: -12.0, max: 8.0 }
     }
 }
 

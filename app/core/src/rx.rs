@@ -193,11 +193,7 @@ impl Rx {
         if self.is_spherical() {
             return *self;
         }
-        Rx::raw(
-            self.sphere + self.cylinder,
-            -self.cylinder,
-            perpendicular(self.axis),
-        )
+        Rx::raw(self.sphere + self.cylinder, -self.cylinder, perpendicular(self.axis))
     }
 
     /// Minus-cylinder form (unchanged when already minus or spherical).

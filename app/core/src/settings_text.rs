@@ -2,8 +2,8 @@
 //! substitute limits), with the same tolerance as the prescription fields:
 //! comma decimals, a trailing `D`, `1:4`, `1/4` or just `4` for a ratio.
 
-use crate::error::{Error, ErrorKind, Field};
 use crate::equivalent::SubstituteSettings;
+use crate::error::{Error, ErrorKind, Field};
 use crate::parse::Parsed;
 
 fn bad(what: &'static str) -> Error {
@@ -29,7 +29,10 @@ fn number(text: &str) -> Option<f64> {
 /// ```
 pub fn parse_cylinder_limit(text: &str) -> Result<Parsed<f64>, Error> {
     match number(text) {
-        Some(x) if (0.0..=10.0).contains(&x) => Ok(Parsed { value: x, notices: vec![] }),
+        Some(x) if (0.0..=10.0).contains(&x) => Ok(Parsed {
+            value: x,
+            notices: vec![],
+        }),
         _ => Err(bad("a cylinder limit is a size in dioptres from 0 to 10")),
     }
 }
@@ -58,11 +61,18 @@ pub fn parse_ratio_limit(text: &str) -> Result<Parsed<f64>, Error> {
         }
         None => {
             let x = number(t).ok_or_else(err)?;
-            if x > 1.0 { 1.0 / x } else { x }
+            if x > 1.0 {
+                1.0 / x
+            } else {
+                x
+            }
         }
     };
     if (0.0..=1.0).contains(&ratio) && ratio > 0.0 {
-        Ok(Parsed { value: ratio, notices: vec![] })
+        Ok(Parsed {
+            value: ratio,
+            notices: vec![],
+        })
     } else {
         Err(err())
     }

@@ -39,19 +39,8 @@ impl ToricSettings {
     /// assert_eq!(bad.validate().unwrap_err().to_string(), "setting: the toric axis step must divide 180");
     /// ```
     pub fn validate(&self) -> Result<(), Error> {
-        let bad = |what| {
-            Err(Error::new(
-                ErrorKind::BadSetting { what },
-                Field::Setting,
-                None,
-            ))
-        };
-        if self.cylinders.is_empty()
-            || self
-                .cylinders
-                .iter()
-                .any(|c| !c.is_finite() || *c >= 0.0 || *c < -10.0)
-        {
+        let bad = |what| Err(Error::new(ErrorKind::BadSetting { what }, Field::Setting, None));
+        if self.cylinders.is_empty() || self.cylinders.iter().any(|c| !c.is_finite() || *c >= 0.0 || *c < -10.0) {
             return bad("toric cylinders must be negative, down to -10.00 D");
         }
         if self.axis_step == 0 || self.axis_step > 90 || 180 % self.axis_step != 0 {
@@ -62,10 +51,7 @@ impl ToricSettings {
 
     /// The smallest available cylinder magnitude.
     pub(crate) fn smallest(&self) -> f64 {
-        self.cylinders
-            .iter()
-            .map(|c| c.abs())
-            .fold(f64::INFINITY, f64::min)
+        self.cylinders.iter().map(|c| c.abs()).fold(f64::INFINITY, f64::min)
     }
 
     /// The largest available cylinder magnitude.
@@ -161,9 +147,7 @@ pub fn choose_toric(
     let ordered = Rx::raw(sphere, cylinder, axis);
     let exact_v = exact.power_vector();
     let residual = ordered.power_vector().minus(&exact_v);
-    let axis_only = Rx::raw(exact.sphere(), c, axis)
-        .power_vector()
-        .minus(&exact_v);
+    let axis_only = Rx::raw(exact.sphere(), c, axis).power_vector().minus(&exact_v);
     let cyl_only = Rx::raw(exact.sphere(), cylinder, exact.axis())
         .power_vector()
         .minus(&exact_v);

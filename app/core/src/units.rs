@@ -65,11 +65,7 @@ impl VertexDistance {
             } else {
                 "(not a number)".into()
             };
-            Err(range_error(
-                Field::VertexFrom,
-                format!("{typed} mm"),
-                "0–30 mm",
-            ))
+            Err(range_error(Field::VertexFrom, format!("{typed} mm"), "0–30 mm"))
         }
     }
 
@@ -146,11 +142,7 @@ impl ReadingDistance {
             } else {
                 "(not a number)".into()
             };
-            Err(range_error(
-                Field::ReadingDistance,
-                format!("{typed} cm"),
-                "10–100 cm",
-            ))
+            Err(range_error(Field::ReadingDistance, format!("{typed} cm"), "10–100 cm"))
         }
     }
 
@@ -303,21 +295,13 @@ impl Add {
     /// ```
     pub fn new(dioptres: f64) -> Result<Add, Error> {
         if !dioptres.is_finite() {
-            return Err(range_error(
-                Field::Add,
-                "(not a number)".into(),
-                "0.00 to +4.00",
-            ));
+            return Err(range_error(Field::Add, "(not a number)".into(), "0.00 to +4.00"));
         }
         if dioptres < 0.0 {
             return Err(Error::new(ErrorKind::AddNotPlus, Field::Add, None));
         }
         if dioptres > ADD_MAX {
-            return Err(range_error(
-                Field::Add,
-                prose_power(dioptres),
-                "0.00 to +4.00",
-            ));
+            return Err(range_error(Field::Add, prose_power(dioptres), "0.00 to +4.00"));
         }
         Ok(Add(dioptres + 0.0))
     }

@@ -28,11 +28,7 @@ pub fn effective_power(power: f64, shift_m: f64) -> Result<f64, Error> {
     let denominator = 1.0 - shift_m * power;
     let result = power / denominator;
     if denominator.abs() < 1e-12 || !result.is_finite() || result.abs() > RESULT_LIMIT {
-        return Err(Error::new(
-            ErrorKind::Singular { power },
-            Field::Result,
-            None,
-        ));
+        return Err(Error::new(ErrorKind::Singular { power }, Field::Result, None));
     }
     Ok(result + 0.0)
 }
@@ -45,11 +41,7 @@ pub fn effective_power(power: f64, shift_m: f64) -> Result<f64, Error> {
 /// assert!((f - -10.4167).abs() < 5e-5);
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
-pub fn compensate_power(
-    power: f64,
-    from: VertexDistance,
-    to: VertexDistance,
-) -> Result<f64, Error> {
+pub fn compensate_power(power: f64, from: VertexDistance, to: VertexDistance) -> Result<f64, Error> {
     effective_power(power, from.metres() - to.metres())
 }
 
@@ -62,11 +54,7 @@ pub fn compensate_power(
 /// assert!((c.second().power - -8.9286).abs() < 5e-5);
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
-pub fn compensate_meridians(
-    cross: &PowerCross,
-    from: VertexDistance,
-    to: VertexDistance,
-) -> Result<PowerCross, Error> {
+pub fn compensate_meridians(cross: &PowerCross, from: VertexDistance, to: VertexDistance) -> Result<PowerCross, Error> {
     cross.try_map_powers(|p| compensate_power(p, from, to))
 }
 

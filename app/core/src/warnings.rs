@@ -5,9 +5,7 @@ use serde::{Deserialize, Serialize};
 
 use crate::error::Field;
 use crate::format::{fmt_number, fmt_power};
-use crate::limits::{
-    CYLINDER_WARN, MEASURE_VERTEX_ABOVE, SPHERE_WARN, VERTEX_MAX_MM, VERTEX_USUAL_MM,
-};
+use crate::limits::{CYLINDER_WARN, MEASURE_VERTEX_ABOVE, SPHERE_WARN, VERTEX_MAX_MM, VERTEX_USUAL_MM};
 use crate::rounding::{is_on_step, round_to_step, TieRule};
 use crate::{compensate_power, Rx, VertexDistance};
 
@@ -64,11 +62,7 @@ pub const CAUTIONS: [&str; 6] = [
 ];
 
 pub(crate) fn warn(kind: WarningKind, field: Field, message: String) -> Warning {
-    Warning {
-        kind,
-        field,
-        message,
-    }
+    Warning { kind, field, message }
 }
 
 /// Warnings about a prescription as entered: off-step, very high powers.
@@ -113,10 +107,7 @@ pub fn rx_warnings(rx: &Rx) -> Vec<Warning> {
         out.push(warn(
             WarningKind::HighCylinder,
             Field::Cylinder,
-            format!(
-                "cylinder {} is above 6 D: check the entry",
-                fmt_power(rx.cylinder())
-            ),
+            format!("cylinder {} is above 6 D: check the entry", fmt_power(rx.cylinder())),
         ));
     }
     out
@@ -201,18 +192,17 @@ pub fn vertex_warnings(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Vec
     let changes: Vec<f64> = cross
         .both()
         .iter()
-        .filter_map(|m| {
-            compensate_power(m.power, from, to)
-                .ok()
-                .map(|p| (p - m.power).abs())
-        })
+        .filter_map(|m| compensate_power(m.power, from, to).ok().map(|p| (p - m.power).abs()))
         .collect();
     let largest = changes.iter().copied().fold(0.0, f64::max);
     if changes.len() == 2 && largest > 0.0 && largest < 0.25 {
         out.push(warn(
             WarningKind::BelowQuarterStep,
             Field::Result,
-            format!("the change is below a quarter step ({} D at most): vertex makes little difference here", fmt_number(largest)),
+            format!(
+                "the change is below a quarter step ({} D at most): vertex makes little difference here",
+                fmt_number(largest)
+            ),
         ));
     }
     out

@@ -137,16 +137,8 @@ fn r1_rounding_per_meridian_vs_separately() {
         TieRule::TowardPlus,
     )
     .unwrap();
-    close(
-        o.exact.meridians().first().power,
-        -5.1595,
-        "R1 meridian 180",
-    );
-    close(
-        o.exact.meridians().second().power,
-        -7.0906,
-        "R1 meridian 90",
-    );
+    close(o.exact.meridians().first().power, -5.1595, "R1 meridian 180");
+    close(o.exact.meridians().second().power, -7.0906, "R1 meridian 90");
     assert_eq!(o.ordered.to_string(), "-5.25 -1.75 ×180");
     assert_eq!(
         round_separately(&o.exact, &Ladder::CONTACT_LENS, TieRule::TowardPlus).to_string(),
@@ -277,11 +269,7 @@ fn a1_tentative_add_age_50_at_40cm() {
     // A1 [textbook]: 40 cm, age 50, minimum amplitude: half reserve 1.25;
     // one-third reserve 0.8333 → 0.75
     let demand = ReadingDistance::from_cm(40.0).unwrap().demand();
-    let t = tentative_add(
-        demand,
-        hofstetter(Age::new(50).unwrap()).minimum,
-        TieRule::TowardPlus,
-    );
+    let t = tentative_add(demand, hofstetter(Age::new(50).unwrap()).minimum, TieRule::TowardPlus);
     close(t.half_reserve, 1.25, "A1 half");
     close(t.third_reserve, 0.8333, "A1 third");
     assert_eq!(t.third_reserve_rounded, 0.75);
@@ -291,20 +279,14 @@ fn a1_tentative_add_age_50_at_40cm() {
 fn d1_demand() {
     // D1 [definition]: demand at 40 / 33.33 / 25 cm → 2.50 / 3.00 / 4.00
     for (cm, want) in [(40.0, "2.50"), (33.33, "3.00"), (25.0, "4.00")] {
-        assert_eq!(
-            fmt_number(ReadingDistance::from_cm(cm).unwrap().demand()),
-            want
-        );
+        assert_eq!(fmt_number(ReadingDistance::from_cm(cm).unwrap().demand()), want);
     }
 }
 
 #[test]
 fn s1_spherical_equivalent() {
     // S1 [definition]: SE of −2.00 −0.50 ×90 → −2.25; +1.50 −1.00 ×180 → +1.00
-    assert_eq!(
-        Rx::new(-2.0, -0.5, 90).unwrap().spherical_equivalent(),
-        -2.25
-    );
+    assert_eq!(Rx::new(-2.0, -0.5, 90).unwrap().spherical_equivalent(), -2.25);
     assert_eq!(Rx::new(1.5, -1.0, 180).unwrap().spherical_equivalent(), 1.0);
 }
 
@@ -377,9 +359,5 @@ fn crossed_cylinder_from_axis_rotation() {
     .unwrap();
     assert_eq!(t.ordered.axis(), 20);
     let theta = 5.0_f64.to_radians();
-    close(
-        t.residual_from_axis,
-        2.0 * 1.75 * theta.sin(),
-        "rotation residual",
-    );
+    close(t.residual_from_axis, 2.0 * 1.75 * theta.sin(), "rotation residual");
 }

@@ -117,11 +117,7 @@ fn near_figures_match_ray_tracing() {
                             let pairs = [
                                 ("K", n.ocular_refraction, k),
                                 ("A spectacles", n.accommodation_spectacles, k - le_plain),
-                                (
-                                    "A with add",
-                                    n.accommodation_spectacles_with_add,
-                                    k - le_add,
-                                ),
+                                ("A with add", n.accommodation_spectacles_with_add, k - le_add),
                                 ("A target", n.accommodation_target, k - target_plain),
                                 ("relief", n.relief_at_eye, le_add - le_plain),
                                 ("F2", n.distance_power_at_target, f2),

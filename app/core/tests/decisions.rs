@@ -22,12 +22,10 @@ fn d1_results_beyond_100_d_are_errors() {
 #[test]
 fn d2_spherical_equivalent_after_compensating_meridians() {
     let rx = Rx::new(-8.0, -2.0, 180).unwrap();
-    let ours =
-        spherical_equivalent_at(&rx, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
+    let ours = spherical_equivalent_at(&rx, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
     // [derived] (−7.2993 + −8.9286) / 2 = −8.1139
     assert!((ours - -8.11395).abs() < 1e-4);
-    let other_order =
-        compensate_power(-9.0, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
+    let other_order = compensate_power(-9.0, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
     let gap = (ours - other_order).abs();
     assert!(gap > 0.0 && gap < 0.01, "the two orders differ by {gap}");
 }
@@ -44,25 +42,13 @@ fn d3_display_rounding_and_notation() {
     assert_eq!(fmt_sphere(f64::NAN), "\u{2014}");
     assert_eq!(fmt_sphere(0.004), "plano");
     assert_eq!(
-        PowerCross::new(-2.0, -2.004, 90)
-            .unwrap()
-            .to_rx()
-            .to_string(),
+        PowerCross::new(-2.0, -2.004, 90).unwrap().to_rx().to_string(),
         "-2.00 DS"
     );
     assert_eq!(Rx::sphere_only(0.0).unwrap().to_string(), "plano");
-    assert_eq!(
-        Rx::new(1.0, -0.25, 5).unwrap().to_string(),
-        "+1.00 -0.25 ×5"
-    );
-    assert!(!Rx::new(-1.0, -0.25, 5)
-        .unwrap()
-        .to_string()
-        .contains('\u{2212}'));
-    assert!(parse_rx("2 -1 x 9")
-        .unwrap_err()
-        .to_string()
-        .contains('\u{2212}'));
+    assert_eq!(Rx::new(1.0, -0.25, 5).unwrap().to_string(), "+1.00 -0.25 ×5");
+    assert!(!Rx::new(-1.0, -0.25, 5).unwrap().to_string().contains('\u{2212}'));
+    assert!(parse_rx("2 -1 x 9").unwrap_err().to_string().contains('\u{2212}'));
 }
 
 #[test]
@@ -91,9 +77,7 @@ fn report_to_cornea(rx: Rx) -> VertexReport {
 fn d5_toric_offer_threshold_and_axis_ties() {
     // −0.62 cylinder at the cornea rounds to −0.50 (tie to smaller): no toric.
     // Spectacle −1.00 −0.62 ×180 → cornea cylinder ≈ −0.59.
-    assert!(report_to_cornea(Rx::new(-1.0, -0.62, 180).unwrap())
-        .toric
-        .is_none());
+    assert!(report_to_cornea(Rx::new(-1.0, -0.62, 180).unwrap()).toric.is_none());
     // −0.75 at the spectacle plane, low power: about −0.74 at the cornea → offered.
     let t = report_to_cornea(Rx::new(-1.0, -0.75, 180).unwrap())
         .toric
@@ -162,13 +146,7 @@ fn d6_substitute_verdicts() {
     assert!(!assess_substitute(&Rx::new(0.12, -0.75, 180).unwrap(), &s).mixed);
 }
 
-fn near(
-    rx: Rx,
-    add: f64,
-    target: VertexDistance,
-    age: Option<u8>,
-    measured: Measured,
-) -> NearReport {
+fn near(rx: Rx, add: f64, target: VertexDistance, age: Option<u8>, measured: Measured) -> NearReport {
     near_report(&NearInput {
         rx,
         add: Add::new(add).unwrap(),
@@ -288,25 +266,20 @@ fn d12_measure_vertex_warning_states_the_sensitivity() {
         VertexDistance::SPECTACLES,
         VertexDistance::CORNEA,
     );
-    let m = w
-        .iter()
-        .find(|w| w.kind == WarningKind::MeasureVertex)
-        .unwrap();
+    let m = w.iter().find(|w| w.kind == WarningKind::MeasureVertex).unwrap();
     // [derived] +12.00 at 12 mm → +14.0187; at 14 mm → +14.4231; 0.40 D
     // (the notes: 2 mm error at +12 D ≈ 0.4 D).
-    assert_eq!(m.message, "a meridian of +12.00 is beyond ±4 D: measure the vertex distance; 2 mm changes this result by 0.40 D");
+    assert_eq!(
+        m.message,
+        "a meridian of +12.00 is beyond ±4 D: measure the vertex distance; 2 mm changes this result by 0.40 D"
+    );
     assert_eq!(m.field, Field::VertexFrom);
 }
 
 #[test]
 fn d13_results_may_exceed_the_input_limits_and_are_not_typed_back() {
     // [derived] +20.00 at 20 mm moved to the cornea: 20 / 0.6 = +33.33.
-    let cl = compensate(
-        &Rx::sphere_only(20.0).unwrap(),
-        mm(20.0),
-        VertexDistance::CORNEA,
-    )
-    .unwrap();
+    let cl = compensate(&Rx::sphere_only(20.0).unwrap(), mm(20.0), VertexDistance::CORNEA).unwrap();
     assert_eq!(cl.to_string(), "+33.33 DS");
     assert_eq!(
         parse_rx(&cl.to_string()).unwrap_err().to_string(),

@@ -21,24 +21,9 @@ fn rx_error(text: &str, message: &str, field: Field, position: Option<usize>) {
 
 #[test]
 fn axis_out_of_range_is_rejected_never_wrapped() {
-    rx_error(
-        "-2.00 -1.00 x181",
-        "axis 181 is outside 1–180",
-        Field::Axis,
-        Some(13),
-    );
-    rx_error(
-        "-2.00 -1.00 x270",
-        "axis 270 is outside 1–180",
-        Field::Axis,
-        Some(13),
-    );
-    rx_error(
-        "-2.00 -1.00 x360",
-        "axis 360 is outside 1–180",
-        Field::Axis,
-        Some(13),
-    );
+    rx_error("-2.00 -1.00 x181", "axis 181 is outside 1–180", Field::Axis, Some(13));
+    rx_error("-2.00 -1.00 x270", "axis 270 is outside 1–180", Field::Axis, Some(13));
+    rx_error("-2.00 -1.00 x360", "axis 360 is outside 1–180", Field::Axis, Some(13));
     rx_error(
         "-2.00 -1.00 x 1800",
         "axis 1800 is outside 1–180",
@@ -103,24 +88,9 @@ fn cylinder_without_sign_asks() {
 
 #[test]
 fn cylinder_without_axis_blocks() {
-    rx_error(
-        "-2.00 -1.00",
-        "cylinder needs an axis",
-        Field::Axis,
-        Some(6),
-    );
-    rx_error(
-        "-2.00/-1.00",
-        "cylinder needs an axis",
-        Field::Axis,
-        Some(6),
-    );
-    rx_error(
-        "-2.00 -1.00 x",
-        "cylinder needs an axis",
-        Field::Axis,
-        Some(12),
-    );
+    rx_error("-2.00 -1.00", "cylinder needs an axis", Field::Axis, Some(6));
+    rx_error("-2.00/-1.00", "cylinder needs an axis", Field::Axis, Some(6));
+    rx_error("-2.00 -1.00 x", "cylinder needs an axis", Field::Axis, Some(12));
 }
 
 #[test]
@@ -211,10 +181,7 @@ fn field_parsers() {
     let e = err(parse_sphere_field("3.5"));
     assert_eq!(e.to_string(), "sphere needs a sign: +3.50 or \u{2212}3.50?");
     let e = err(parse_cylinder_field("0.75"));
-    assert_eq!(
-        e.to_string(),
-        "cylinder needs a sign: +0.75 or \u{2212}0.75?"
-    );
+    assert_eq!(e.to_string(), "cylinder needs a sign: +0.75 or \u{2212}0.75?");
     assert_eq!(e.field(), Field::Cylinder);
     let e = err(parse_cylinder_field("-12"));
     assert_eq!(e.to_string(), "cylinder \u{2212}12 is outside ±10 D");
@@ -237,18 +204,9 @@ fn field_parsers() {
 #[test]
 fn vertex_distances() {
     let cases = [
-        (
-            "1.2",
-            "vertex distance 1.2 mm is under 3 mm: did you mean 12 mm?",
-        ),
-        (
-            "0.012",
-            "vertex distance 0.012 mm is under 3 mm: did you mean 12 mm?",
-        ),
-        (
-            "1.4",
-            "vertex distance 1.4 mm is under 3 mm: did you mean 14 mm?",
-        ),
+        ("1.2", "vertex distance 1.2 mm is under 3 mm: did you mean 12 mm?"),
+        ("0.012", "vertex distance 0.012 mm is under 3 mm: did you mean 12 mm?"),
+        ("1.4", "vertex distance 1.4 mm is under 3 mm: did you mean 14 mm?"),
         ("0.1", "vertex distance 0.1 mm is under 3 mm"),
         ("45", "vertex distance 45 mm is outside 0–30 mm"),
         ("-5", "vertex distance \u{2212}5 mm is outside 0–30 mm"),
@@ -291,16 +249,10 @@ fn adds_and_ages() {
             parse_add("250").map(|_| ()),
             "add 250 is outside 0.00 to +4.00: did you mean +2.50?",
         ),
-        (
-            parse_add("+4.50").map(|_| ()),
-            "add +4.50 is outside 0.00 to +4.00",
-        ),
+        (parse_add("+4.50").map(|_| ()), "add +4.50 is outside 0.00 to +4.00"),
         (parse_age("150").map(|_| ()), "age 150 is outside 1–110"),
         (parse_age("0").map(|_| ()), "age 0 is outside 1–110"),
-        (
-            parse_age("45.5").map(|_| ()),
-            "age 45.5 must be whole years",
-        ),
+        (parse_age("45.5").map(|_| ()), "age 45.5 must be whole years"),
         (parse_age("1000").map(|_| ()), "age 1000 is outside 1–110"),
     ];
     for (r, message) in cases {
@@ -318,10 +270,7 @@ fn constructors_reject_nonsense() {
         err(Rx::new(-2.0, -10.5, 180)).to_string(),
         "cylinder \u{2212}10.50 is outside ±10 D"
     );
-    assert_eq!(
-        err(Rx::new(-2.0, -1.0, 181)).to_string(),
-        "axis 181 is outside 1–180"
-    );
+    assert_eq!(err(Rx::new(-2.0, -1.0, 181)).to_string(), "axis 181 is outside 1–180");
     assert_eq!(
         err(VertexDistance::from_mm(f64::INFINITY)).to_string(),
         "vertex distance (not a number) mm is outside 0–30 mm"

@@ -12,19 +12,9 @@ fn reads(text: &str, shown: &str) -> Vec<NoticeKind> {
 
 #[test]
 fn minus_look_alikes_are_minus_and_echoed() {
-    for text in [
-        "\u{2212}6.00",
-        "\u{2013}6",
-        "\u{FF0D}6",
-        "\u{2014}6.00",
-        "-6",
-    ] {
+    for text in ["\u{2212}6.00", "\u{2013}6", "\u{FF0D}6", "\u{2014}6.00", "-6"] {
         let kinds = reads(text, "-6.00 DS");
-        assert_eq!(
-            kinds.contains(&NoticeKind::MinusRead),
-            text != "-6",
-            "for {text:?}"
-        );
+        assert_eq!(kinds.contains(&NoticeKind::MinusRead), text != "-6", "for {text:?}");
     }
     let p = parse_rx("\u{2212}6.00").unwrap();
     assert_eq!(p.notices[0].message, "read the dash as a minus: -6.00");
@@ -39,9 +29,7 @@ fn comma_decimals() {
 
 #[test]
 fn plano_forms() {
-    for text in [
-        "pl", "plano", "PLANO", "0", "±0.00", "0.00", "+0.00", "-0.00", "pl DS",
-    ] {
+    for text in ["pl", "plano", "PLANO", "0", "±0.00", "0.00", "+0.00", "-0.00", "pl DS"] {
         reads(text, "plano");
     }
     reads("pl -0.50 x 90", "plano -0.50 ×90");
@@ -89,10 +77,7 @@ fn axis_markers() {
 
 #[test]
 fn bare_third_number_is_the_axis_with_a_notice() {
-    assert_eq!(
-        reads("-2.00 -1.00 180", "-2.00 -1.00 ×180"),
-        vec![NoticeKind::BareAxis]
-    );
+    assert_eq!(reads("-2.00 -1.00 180", "-2.00 -1.00 ×180"), vec![NoticeKind::BareAxis]);
 }
 
 #[test]
@@ -128,10 +113,7 @@ fn plus_cylinder_form_is_kept() {
 #[test]
 fn zero_cylinder_needs_no_axis_and_ignores_one() {
     reads("-2.00 0.00", "-2.00 DS");
-    assert_eq!(
-        reads("-2.00 -0.00 x 90", "-2.00 DS"),
-        vec![NoticeKind::AxisIgnored]
-    );
+    assert_eq!(reads("-2.00 -0.00 x 90", "-2.00 DS"), vec![NoticeKind::AxisIgnored]);
 }
 
 #[test]
@@ -170,22 +152,13 @@ fn vertex_reading_add_age() {
     assert_eq!(parse_reading_distance("40").unwrap().value.cm(), 40.0);
     assert_eq!(parse_reading_distance("33 cm").unwrap().value.cm(), 33.0);
     assert_eq!(parse_reading_distance("0.4 m").unwrap().value.cm(), 40.0);
-    assert_eq!(
-        parse_reading_distance("16\"").unwrap().value.cm(),
-        16.0 * 2.54
-    );
-    assert_eq!(
-        parse_reading_distance("14 inches").unwrap().value.cm(),
-        14.0 * 2.54
-    );
+    assert_eq!(parse_reading_distance("16\"").unwrap().value.cm(), 16.0 * 2.54);
+    assert_eq!(parse_reading_distance("14 inches").unwrap().value.cm(), 14.0 * 2.54);
 
     assert_eq!(parse_add("+2.50").unwrap().value.dioptres(), 2.5);
     assert_eq!(parse_add("add 1,75").unwrap().value.dioptres(), 1.75);
     assert_eq!(parse_add("2 D").unwrap().value.dioptres(), 2.0);
-    assert_eq!(
-        parse_add("2.1").unwrap().notices[0].kind,
-        NoticeKind::OffStep
-    );
+    assert_eq!(parse_add("2.1").unwrap().notices[0].kind, NoticeKind::OffStep);
 
     assert_eq!(parse_age("50 years").unwrap().value.years(), 50);
     assert_eq!(parse_age("7 y").unwrap().value.years(), 7);

@@ -145,23 +145,13 @@ fn near(rx: Rx, add: f64, target: VertexDistance, age: Option<u8>) -> NearReport
 #[test]
 fn near_report_summary_lines() {
     // N3 [derived]: myope, add fully neutralising 40 cm.
-    let r = near(
-        Rx::sphere_only(-6.0).unwrap(),
-        2.5,
-        VertexDistance::CORNEA,
-        None,
-    );
+    let r = near(Rx::sphere_only(-6.0).unwrap(), 2.5, VertexDistance::CORNEA, None);
     assert_eq!(
         r.summary,
         "a myope in contact lenses needs more accommodation at this distance (2.43 D vs 2.12 D through the spectacles); the equivalent add is +2.43, within a quarter step of the spectacle add +2.50"
     );
     // [derived] hyperope +6.00 with add +2.00: equivalent add +1.8504.
-    let r = near(
-        Rx::sphere_only(6.0).unwrap(),
-        2.0,
-        VertexDistance::CORNEA,
-        None,
-    );
+    let r = near(Rx::sphere_only(6.0).unwrap(), 2.0, VertexDistance::CORNEA, None);
     assert!((r.add_at_target - 1.8504).abs() < 1e-4);
     assert_eq!(
         r.summary,
@@ -179,12 +169,7 @@ fn near_report_summary_lines() {
 
 #[test]
 fn near_report_warnings_and_amplitude() {
-    let r = near(
-        Rx::sphere_only(-3.0).unwrap(),
-        2.5,
-        VertexDistance::CORNEA,
-        Some(62),
-    );
+    let r = near(Rx::sphere_only(-3.0).unwrap(), 2.5, VertexDistance::CORNEA, Some(62));
     let k = kinds(&r.warnings);
     for want in [
         WarningKind::MultifocalLabels,
@@ -205,7 +190,10 @@ fn near_report_warnings_and_amplitude() {
         .iter()
         .find(|w| w.kind == WarningKind::AddDiffersFromAge)
         .unwrap();
-    assert_eq!(w.message, "the add +2.50 is outside the age estimate (0.00 to +0.63, half in reserve): check the amplitude");
+    assert_eq!(
+        w.message,
+        "the add +2.50 is outside the age estimate (0.00 to +0.63, half in reserve): check the amplitude"
+    );
     assert!(!kinds(&r.warnings).contains(&WarningKind::MultifocalLabels));
     // Same plane: the add does not change.
     assert!((r.add_at_target - 2.5).abs() < 1e-12);
@@ -216,12 +204,7 @@ fn reports_round_trip_through_serde() {
     let v = vertex(Rx::new(-8.0, -2.0, 180).unwrap(), 12.0, 0.0);
     let back: VertexReport = serde_json::from_str(&serde_json::to_string(&v).unwrap()).unwrap();
     assert_eq!(back, v);
-    let n = near(
-        Rx::new(2.0, -1.5, 35).unwrap(),
-        2.0,
-        VertexDistance::CORNEA,
-        Some(55),
-    );
+    let n = near(Rx::new(2.0, -1.5, 35).unwrap(), 2.0, VertexDistance::CORNEA, Some(55));
     let back: NearReport = serde_json::from_str(&serde_json::to_string(&n).unwrap()).unwrap();
     assert_eq!(back, n);
     let e = equivalent_report(&EquivalentInput {
@@ -256,10 +239,7 @@ fn eye_pair_either_may_be_absent() {
     };
     let reports = pair.map(|rx| vertex(rx, 12.0, 0.0));
     assert!(reports.left.is_none());
-    assert_eq!(
-        reports.get(Eye::Right).unwrap().exact.to_string(),
-        "-1.95 DS"
-    );
+    assert_eq!(reports.get(Eye::Right).unwrap().exact.to_string(), "-1.95 DS");
 }
 
 #[test]

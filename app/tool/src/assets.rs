@@ -54,7 +54,10 @@ fn collect_dir(dir: &Path, prefix: &str, files: &mut Vec<Shipped>) -> Result<(),
         if path.is_dir() {
             collect_dir(&path, &format!("{prefix}{name}/"), files)?;
         } else {
-            files.push(Shipped { url: format!("{prefix}{name}"), bytes: read(&path)? });
+            files.push(Shipped {
+                url: format!("{prefix}{name}"),
+                bytes: read(&path)?,
+            });
         }
     }
     Ok(())
@@ -80,12 +83,27 @@ pub fn assemble(root: &Path, bindgen: &Path, out: &Path, build_id: &str) -> Resu
     let css = read(&public.join("styles.css"))?;
     let css_name = hashed("styles", "css", &css);
 
-    files.push(Shipped { url: wasm_name, bytes: wasm });
-    files.push(Shipped { url: glue_name, bytes: glue });
-    files.push(Shipped { url: boot_name.clone(), bytes: boot.into_bytes() });
-    files.push(Shipped { url: css_name.clone(), bytes: css });
+    files.push(Shipped {
+        url: wasm_name,
+        bytes: wasm,
+    });
+    files.push(Shipped {
+        url: glue_name,
+        bytes: glue,
+    });
+    files.push(Shipped {
+        url: boot_name.clone(),
+        bytes: boot.into_bytes(),
+    });
+    files.push(Shipped {
+        url: css_name.clone(),
+        bytes: css,
+    });
     collect_dir(&public.join("icons"), "icons/", &mut files)?;
-    files.push(Shipped { url: "manifest.json".into(), bytes: read(&root.join("manifest.json"))? });
+    files.push(Shipped {
+        url: "manifest.json".into(),
+        bytes: read(&root.join("manifest.json"))?,
+    });
 
     let version = env!("CARGO_PKG_VERSION");
     let index = replace_all(
@@ -97,7 +115,10 @@ pub fn assemble(root: &Path, bindgen: &Path, out: &Path, build_id: &str) -> Resu
             ("__VERSION__", version),
         ],
     )?;
-    files.push(Shipped { url: "index.html".into(), bytes: index.into_bytes() });
+    files.push(Shipped {
+        url: "index.html".into(),
+        bytes: index.into_bytes(),
+    });
 
     // The worker precaches every file above; its own bytes change whenever any
     // of them does, which is how the browser learns of a new version.
@@ -109,9 +130,16 @@ pub fn assemble(root: &Path, bindgen: &Path, out: &Path, build_id: &str) -> Resu
     let shell_version = short_hash(list_json.as_bytes());
     let sw = replace_all(
         &read_text(&public.join("sw.js"))?,
-        &[("__PRECACHE__", &list_json), ("__SHELL_VERSION__", &shell_version), ("__BUILD_ID__", build_id)],
+        &[
+            ("__PRECACHE__", &list_json),
+            ("__SHELL_VERSION__", &shell_version),
+            ("__BUILD_ID__", build_id),
+        ],
     )?;
-    files.push(Shipped { url: "sw.js".into(), bytes: sw.into_bytes() });
+    files.push(Shipped {
+        url: "sw.js".into(),
+        bytes: sw.into_bytes(),
+    });
 
     for f in &files {
         let path = out.join(&f.url);

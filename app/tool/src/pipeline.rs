@@ -19,7 +19,10 @@ pub fn build(root: &Path, opts: &Options) -> Result<(), String> {
     let site = staging.join("site");
     std::fs::create_dir_all(&bindgen_dir).map_err(|e| format!("cannot create {}: {e}", bindgen_dir.display()))?;
 
-    println!("lensplane: generating bindings (wasm-bindgen {})", wasm_bindgen_version());
+    println!(
+        "lensplane: generating bindings (wasm-bindgen {})",
+        wasm_bindgen_version()
+    );
     let mut bindgen = wasm_bindgen_cli_support::Bindgen::new();
     bindgen
         .input_path(&wasm)
@@ -31,7 +34,9 @@ pub fn build(root: &Path, opts: &Options) -> Result<(), String> {
         .debug(false)
         .keep_debug(std::env::var_os("LENSPLANE_NAMES").is_some())
         .typescript(false);
-    bindgen.generate(&bindgen_dir).map_err(|e| format!("wasm-bindgen failed: {e}"))?;
+    bindgen
+        .generate(&bindgen_dir)
+        .map_err(|e| format!("wasm-bindgen failed: {e}"))?;
 
     let wasm_out = bindgen_dir.join("lensplane_bg.wasm");
     if let Some(dest) = std::env::var_os("LENSPLANE_NAMES") {
@@ -40,7 +45,9 @@ pub fn build(root: &Path, opts: &Options) -> Result<(), String> {
     if opts.optimise {
         match find_wasm_opt(root) {
             Some(tool) => optimise(&tool, &wasm_out)?,
-            None => println!("lensplane: no working wasm-opt (npm binaryen ≥ {MIN_WASM_OPT}); shipping the unoptimised wasm"),
+            None => println!(
+                "lensplane: no working wasm-opt (npm binaryen ≥ {MIN_WASM_OPT}); shipping the unoptimised wasm"
+            ),
         }
         let terser = root.join("tests/node_modules/.bin/terser");
         if terser.exists() {
@@ -66,7 +73,11 @@ pub fn build(root: &Path, opts: &Options) -> Result<(), String> {
     let report = sizes::report(&files, &build_id);
     let report_path = opts.out.with_extension("report.json");
     std::fs::write(&report_path, report).map_err(|e| format!("cannot write {}: {e}", report_path.display()))?;
-    println!("lensplane: built {} (build {build_id}); size report in {}", opts.out.display(), report_path.display());
+    println!(
+        "lensplane: built {} (build {build_id}); size report in {}",
+        opts.out.display(),
+        report_path.display()
+    );
     Ok(())
 }
 
@@ -90,7 +101,10 @@ fn ensure_target() -> Result<(), String> {
         Ok(out) if String::from_utf8_lossy(&out.stdout).lines().any(|l| l.trim() == TARGET) => Ok(()),
         Ok(_) => {
             println!("lensplane: adding the {TARGET} target with rustup");
-            run(Command::new("rustup").args(["target", "add", TARGET]), "rustup target add")
+            run(
+                Command::new("rustup").args(["target", "add", TARGET]),
+                "rustup target add",
+            )
         }
         // No rustup: let cargo say whether the target's standard library is there.
         Err(_) => Ok(()),
@@ -108,9 +122,17 @@ fn cargo_build(root: &Path) -> Result<PathBuf, String> {
     let cargo = std::env::var("CARGO").unwrap_or_else(|_| "cargo".into());
     println!("lensplane: compiling the app for {TARGET} (release, size-tuned)");
     run(
-        Command::new(cargo)
-            .current_dir(root)
-            .args(["build", "--release", "--locked", "--target", TARGET, "-p", "lensplane-web", "--bin", "lensplane-web"]),
+        Command::new(cargo).current_dir(root).args([
+            "build",
+            "--release",
+            "--locked",
+            "--target",
+            TARGET,
+            "-p",
+            "lensplane-web",
+            "--bin",
+            "lensplane-web",
+        ]),
         "cargo build of the app",
     )?;
     let wasm = target_dir(root).join(TARGET).join("release").join("lensplane-web.wasm");
@@ -146,7 +168,10 @@ fn find_wasm_opt(root: &Path) -> Option<PathBuf> {
     for candidate in [local, PathBuf::from("wasm-opt")] {
         match wasm_opt_version(&candidate) {
             Some(v) if v >= MIN_WASM_OPT => return Some(candidate),
-            Some(v) => println!("lensplane: skipping {} (version {v} < {MIN_WASM_OPT})", candidate.display()),
+            Some(v) => println!(
+                "lensplane: skipping {} (version {v} < {MIN_WASM_OPT})",
+                candidate.display()
+            ),
             None => {}
         }
     }
@@ -179,7 +204,11 @@ fn minify_glue(terser: &Path, glue: &Path) -> Result<(), String> {
     println!("lensplane: minifying the wasm-bindgen glue with {}", terser.display());
     let tmp = glue.with_extension("min.js");
     run(
-        Command::new(terser).arg(glue).arg("-o").arg(&tmp).args(["--module", "--compress", "passes=2", "--mangle"]),
+        Command::new(terser)
+            .arg(glue)
+            .arg("-o")
+            .arg(&tmp)
+            .args(["--module", "--compress", "passes=2", "--mangle"]),
         "terser",
     )?;
     std::fs::rename(&tmp, glue).map_err(|e| e.to_string())
@@ -201,7 +230,11 @@ fn default_build_id(root: &Path) -> String {
     match git(&["rev-parse", "--short=10", "HEAD"]) {
         Some(rev) if !rev.is_empty() => {
             let dirty = git(&["status", "--porcelain", "--untracked-files=no"]).is_some_and(|s| !s.is_empty());
-            if dirty { format!("{rev}+local") } else { rev }
+            if dirty {
+                format!("{rev}+local")
+            } else {
+                rev
+            }
         }
         _ => "local".into(),
     }

@@ -38,7 +38,10 @@ fn percent_decode(s: &str) -> String {
     let mut i = 0;
     while i < bytes.len() {
         if bytes[i] == b'%' && i + 2 < bytes.len() {
-            if let Some(v) = std::str::from_utf8(&bytes[i + 1..i + 3]).ok().and_then(|h| u8::from_str_radix(h, 16).ok()) {
+            if let Some(v) = std::str::from_utf8(&bytes[i + 1..i + 3])
+                .ok()
+                .and_then(|h| u8::from_str_radix(h, 16).ok())
+            {
                 out.push(v);
                 i += 3;
                 continue;
@@ -53,7 +56,9 @@ fn percent_decode(s: &str) -> String {
 /// Maps a request path to a file in `dir`, refusing anything that climbs out.
 fn resolve(dir: &Path, prefix: &str, url: &str) -> Option<PathBuf> {
     let path = url.split(['?', '#']).next().unwrap_or("");
-    let rest = path.strip_prefix(prefix).or_else(|| (path.to_string() + "/" == prefix).then_some(""))?;
+    let rest = path
+        .strip_prefix(prefix)
+        .or_else(|| (path.to_string() + "/" == prefix).then_some(""))?;
     let rest = percent_decode(rest);
     let rel = Path::new(&rest);
     if rel.components().any(|c| !matches!(c, Component::Normal(_))) {
@@ -72,7 +77,10 @@ fn resolve(dir: &Path, prefix: &str, url: &str) -> Option<PathBuf> {
 
 pub fn serve(dir: &Path, port: u16, prefix: &str) -> Result<(), String> {
     if !dir.join("index.html").is_file() {
-        return Err(format!("{} has no index.html; run `lensplane build` first", dir.display()));
+        return Err(format!(
+            "{} has no index.html; run `lensplane build` first",
+            dir.display()
+        ));
     }
     let server = Server::http(("127.0.0.1", port)).map_err(|e| format!("cannot listen on 127.0.0.1:{port}: {e}"))?;
     let actual = server.server_addr().to_ip().map(|a| a.port()).unwrap_or(port);
@@ -82,7 +90,11 @@ pub fn serve(dir: &Path, port: u16, prefix: &str) -> Result<(), String> {
         let response = match resolve(dir, prefix, &url) {
             Some(file) => match std::fs::read(&file) {
                 Ok(bytes) => {
-                    let cache = if is_hashed(&file) { "public, max-age=31536000, immutable" } else { "no-cache" };
+                    let cache = if is_hashed(&file) {
+                        "public, max-age=31536000, immutable"
+                    } else {
+                        "no-cache"
+                    };
                     Response::from_data(bytes)
                         .with_header(header("Content-Type", content_type(&file)))
                         .with_header(header("Cache-Control", cache))

@@ -16,7 +16,10 @@ fn gzip_len(bytes: &[u8]) -> usize {
 
 /// Prints the size table and returns it as JSON.
 pub fn report(files: &[Shipped], build_id: &str) -> String {
-    let mut rows: Vec<(&str, usize, usize)> = files.iter().map(|f| (f.url.as_str(), f.bytes.len(), gzip_len(&f.bytes))).collect();
+    let mut rows: Vec<(&str, usize, usize)> = files
+        .iter()
+        .map(|f| (f.url.as_str(), f.bytes.len(), gzip_len(&f.bytes)))
+        .collect();
     rows.sort_by(|a, b| b.2.cmp(&a.2));
     let (raw, gz) = rows.iter().fold((0, 0), |(r, g), row| (r + row.1, g + row.2));
     println!("{:<40} {:>10} {:>10}", "file", "raw B", "gzip B");

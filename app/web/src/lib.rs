@@ -4,8 +4,8 @@
 //! arithmetic of its own. Plain logic (the link format, stored history) lives
 //! in ordinary types with native tests; components only display them.
 
-pub mod link;
 pub mod history;
+pub mod link;
 mod panels;
 mod shell;
 mod sync;

@@ -32,10 +32,20 @@ pub enum Destination {
 
 impl Destination {
     /// Every destination.
-    pub const ALL: [Destination; 5] =
-        [Destination::Vertex, Destination::Equivalent, Destination::Near, Destination::History, Destination::About];
+    pub const ALL: [Destination; 5] = [
+        Destination::Vertex,
+        Destination::Equivalent,
+        Destination::Near,
+        Destination::History,
+        Destination::About,
+    ];
     /// The ones in the main navigation.
-    pub const NAV: [Destination; 4] = [Destination::Vertex, Destination::Equivalent, Destination::Near, Destination::History];
+    pub const NAV: [Destination; 4] = [
+        Destination::Vertex,
+        Destination::Equivalent,
+        Destination::Near,
+        Destination::History,
+    ];
 
     /// The route, relative to where the app is deployed.
     pub fn path(self) -> &'static str {
@@ -58,7 +68,9 @@ impl Destination {
     /// `None` for the app's root (which opens the vertex panel), `Some(None)`
     /// for a path that is not a destination.
     pub fn route(path: &str, base: &str) -> Option<Option<Destination>> {
-        let Some(rest) = path.strip_prefix(base) else { return Some(None) };
+        let Some(rest) = path.strip_prefix(base) else {
+            return Some(None);
+        };
         if rest.is_empty() || rest == "/" {
             return None;
         }
@@ -182,7 +194,16 @@ mod tests {
 
     #[test]
     fn every_typed_character_survives_a_round_trip() {
-        let typed = ["−6.00 –1.25 ×005", "-2,50", "pl", "+1.00 DS", "-2.00/-1.00x180", "a&b=c%d", "180°", "  "];
+        let typed = [
+            "−6.00 –1.25 ×005",
+            "-2,50",
+            "pl",
+            "+1.00 DS",
+            "-2.00/-1.00x180",
+            "a&b=c%d",
+            "180°",
+            "  ",
+        ];
         for t in typed {
             let q = Query::default().with("r", t);
             let back = Query::parse(&q.encode(&["r"]));
@@ -207,7 +228,11 @@ mod tests {
 
     #[test]
     fn keys_encode_in_the_given_order_then_the_rest_as_they_came() {
-        let q = Query::default().with("z", "1").with("to", "0").with("y", "2").with("r", "-1");
+        let q = Query::default()
+            .with("z", "1")
+            .with("to", "0")
+            .with("y", "2")
+            .with("r", "-1");
         assert_eq!(q.encode(&["r", "from", "to"]), "r=-1&to=0&z=1&y=2");
         assert_eq!(q.encode(&[]), "z=1&to=0&y=2&r=-1");
     }
@@ -226,7 +251,10 @@ mod tests {
         assert_eq!(Destination::route("/near/", ""), Some(Some(Destination::Near)));
         assert_eq!(Destination::route("/clinic/lensplane/", "/clinic/lensplane"), None);
         assert_eq!(Destination::route("/clinic/lensplane", "/clinic/lensplane"), None);
-        assert_eq!(Destination::route("/clinic/lensplane/history", "/clinic/lensplane"), Some(Some(Destination::History)));
+        assert_eq!(
+            Destination::route("/clinic/lensplane/history", "/clinic/lensplane"),
+            Some(Some(Destination::History))
+        );
         assert_eq!(Destination::route("/elsewhere", ""), Some(None));
         assert_eq!(Destination::route("/other/vertex", "/clinic"), Some(None));
     }

@@ -31,7 +31,6 @@ pub fn build_meta(name: &str) -> String {
         .unwrap_or_else(|| "unknown".into())
 }
 
-
 /// Online/offline, from the browser's own events.
 #[component]
 fn ConnectionBadge() -> impl IntoView {
@@ -65,7 +64,14 @@ fn Page(base: String) -> impl IntoView {
         let page = match route.get() {
             None => {
                 // The root opens the vertex panel in place of itself (back does not return to it).
-                navigate(&root, NavigateOptions { replace: true, resolve: false, ..NavigateOptions::default() });
+                navigate(
+                    &root,
+                    NavigateOptions {
+                        replace: true,
+                        resolve: false,
+                        ..NavigateOptions::default()
+                    },
+                );
                 ().into_any()
             }
             Some(Some(d)) => match d {
@@ -90,7 +96,10 @@ fn Page(base: String) -> impl IntoView {
 /// otherwise take the click for a navigation and leave the focus where it was.
 fn skip_to_main(ev: leptos::ev::MouseEvent) {
     ev.prevent_default();
-    if let Some(main) = document().get_element_by_id("main").and_then(|m| wasm_bindgen::JsCast::dyn_into::<web_sys::HtmlElement>(m).ok()) {
+    if let Some(main) = document()
+        .get_element_by_id("main")
+        .and_then(|m| wasm_bindgen::JsCast::dyn_into::<web_sys::HtmlElement>(m).ok())
+    {
         let _ = main.focus();
         main.scroll_into_view();
     }
@@ -115,7 +124,11 @@ pub fn App() -> impl IntoView {
                 let route_base = link_base.clone();
                 let href = move || format!("{b}{}", carried_href(d, &carry.get()));
                 let here = use_location();
-                let current = move || here.pathname.with(|p| Destination::route(p, &route_base) == Some(Some(d))).then_some("page");
+                let current = move || {
+                    here.pathname
+                        .with(|p| Destination::route(p, &route_base) == Some(Some(d)))
+                        .then_some("page")
+                };
                 view! { <a href=href aria-current=current>{d.label()}</a> }
             })
             .collect_view()

@@ -27,7 +27,9 @@ pub fn carried_href(dest: Destination, carry: &Query) -> String {
 
 fn replace_address(url: &str) {
     if let Some(history) = web_sys::window().and_then(|w| w.history().ok()) {
-        let current = web_sys::window().and_then(|w| w.location().href().ok()).unwrap_or_default();
+        let current = web_sys::window()
+            .and_then(|w| w.location().href().ok())
+            .unwrap_or_default();
         if !current.ends_with(url) {
             let _ = history.replace_state_with_url(&wasm_bindgen::JsValue::NULL, "", Some(url));
         }

@@ -55,7 +55,10 @@ fn storage() -> Option<web_sys::Storage> {
 }
 
 pub fn remembered() -> Theme {
-    storage().and_then(|s| s.get_item(KEY).ok().flatten()).map(|n| Theme::from_name(&n)).unwrap_or(Theme::System)
+    storage()
+        .and_then(|s| s.get_item(KEY).ok().flatten())
+        .map(|n| Theme::from_name(&n))
+        .unwrap_or(Theme::System)
 }
 
 pub fn apply(theme: Theme) {

@@ -16,13 +16,20 @@ pub struct Browser {
 impl Browser {
     pub fn open() -> Browser {
         // `window.localStorage` itself throws when storage is blocked.
-        let reachable = web_sys::window().and_then(|w| w.local_storage().ok().flatten()).is_some();
-        Browser { storage: reachable.then(gloo_storage::LocalStorage::raw) }
+        let reachable = web_sys::window()
+            .and_then(|w| w.local_storage().ok().flatten())
+            .is_some();
+        Browser {
+            storage: reachable.then(gloo_storage::LocalStorage::raw),
+        }
     }
 }
 
 fn fault(err: JsValue) -> Fault {
-    let name = js_sys::Reflect::get(&err, &JsValue::from_str("name")).ok().and_then(|n| n.as_string()).unwrap_or_default();
+    let name = js_sys::Reflect::get(&err, &JsValue::from_str("name"))
+        .ok()
+        .and_then(|n| n.as_string())
+        .unwrap_or_default();
     if name == "QuotaExceededError" || name == "NS_ERROR_DOM_QUOTA_REACHED" {
         Fault::Quota
     } else if name == "SecurityError" {
@@ -34,11 +41,19 @@ fn fault(err: JsValue) -> Fault {
 
 impl Backend for Browser {
     fn read(&self, key: &str) -> Result<Option<String>, Fault> {
-        self.storage.as_ref().ok_or(Fault::Unavailable)?.get_item(key).map_err(fault)
+        self.storage
+            .as_ref()
+            .ok_or(Fault::Unavailable)?
+            .get_item(key)
+            .map_err(fault)
     }
 
     fn write(&mut self, key: &str, value: &str) -> Result<(), Fault> {
-        self.storage.as_ref().ok_or(Fault::Unavailable)?.set_item(key, value).map_err(fault)
+        self.storage
+            .as_ref()
+            .ok_or(Fault::Unavailable)?
+            .set_item(key, value)
+            .map_err(fault)
     }
 
     fn remove(&mut self, key: &str) {
@@ -58,7 +73,9 @@ impl Backend for Browser {
 pub fn ask_persistence() {
     let Some(w) = web_sys::window() else { return };
     let nav = w.navigator();
-    let has = js_sys::Reflect::get(&nav, &JsValue::from_str("storage")).map(|s| !s.is_undefined()).unwrap_or(false);
+    let has = js_sys::Reflect::get(&nav, &JsValue::from_str("storage"))
+        .map(|s| !s.is_undefined())
+        .unwrap_or(false);
     if has {
         let _ = nav.storage().persist();
     }
@@ -70,10 +87,20 @@ pub fn download(name: &str, mime: &str, text: &str) -> bool {
     let parts = js_sys::Array::of1(&JsValue::from_str(text));
     let opts = web_sys::BlobPropertyBag::new();
     opts.set_type(mime);
-    let Ok(blob) = web_sys::Blob::new_with_str_sequence_and_options(&parts, &opts) else { return false };
-    let Ok(url) = web_sys::Url::create_object_url_with_blob(&blob) else { return false };
+    let Ok(blob) = web_sys::Blob::new_with_str_sequence_and_options(&parts, &opts) else {
+        return false;
+    };
+    let Ok(url) = web_sys::Url::create_object_url_with_blob(&blob) else {
+        return false;
+    };
     let doc = leptos::prelude::document();
-    let Some(a) = doc.create_element("a").ok().and_then(|a| a.dyn_into::<web_sys::HtmlAnchorElement>().ok()) else { return false };
+    let Some(a) = doc
+        .create_element("a")
+        .ok()
+        .and_then(|a| a.dyn_into::<web_sys::HtmlAnchorElement>().ok())
+    else {
+        return false;
+    };
     a.set_href(&url);
     a.set_download(name);
     a.click();

@@ -24,7 +24,10 @@ pub fn to_json(entries: &[Entry]) -> String {
 /// The unreadable data kept aside, exactly as found, for the user to keep.
 pub fn unreadable_json(kept: &[(String, String)]) -> String {
     let note = "Stored data Lensplane could not read, kept exactly as found (storage key, then the text).";
-    format!("{{\"format\":\"lensplane-unreadable\",\"note\":\"{note}\",\"kept\":{}}}", pairs(kept))
+    format!(
+        "{{\"format\":\"lensplane-unreadable\",\"note\":\"{note}\",\"kept\":{}}}",
+        pairs(kept)
+    )
 }
 
 /// What an import larger than [`IMPORT_MAX`] is told.
@@ -57,10 +60,14 @@ pub fn parse_import(text: &str) -> Result<Vec<Entry>, Problem> {
         Some(s) if s > SCHEMA => return refuse("it was made by a newer version of Lensplane; update first".into()),
         _ => return refuse("its format version is not supported".into()),
     }
-    let Some(Value::Arr(list)) = file.take("entries") else { return refuse("it is damaged (no entries)".into()) };
+    let Some(Value::Arr(list)) = file.take("entries") else {
+        return refuse("it is damaged (no entries)".into());
+    };
     let mut entries = Vec::with_capacity(list.len());
     for (n, v) in list.into_iter().enumerate() {
-        let Some(e) = Entry::read(v) else { return refuse(format!("it is damaged (entry {} is incomplete)", n + 1)) };
+        let Some(e) = Entry::read(v) else {
+            return refuse(format!("it is damaged (entry {} is incomplete)", n + 1));
+        };
         if let Some(p) = e.problem() {
             return refuse(p);
         }
@@ -71,15 +78,26 @@ pub fn parse_import(text: &str) -> Result<Vec<Entry>, Problem> {
 
 /// The local date and time of a stored UTC time.
 pub fn local<Tz: TimeZone>(t: i64, tz: &Tz) -> NaiveDateTime {
-    DateTime::from_timestamp_millis(t).unwrap_or_default().with_timezone(tz).naive_local()
+    DateTime::from_timestamp_millis(t)
+        .unwrap_or_default()
+        .with_timezone(tz)
+        .naive_local()
 }
 
-const MONTHS: [&str; 12] = ["Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"];
+const MONTHS: [&str; 12] = [
+    "Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec",
+];
 const DAYS: [&str; 7] = ["Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"];
 
 /// "Fri 3 May 2024".
 pub fn day_words(d: NaiveDateTime) -> String {
-    format!("{} {} {} {}", DAYS[d.weekday().num_days_from_monday() as usize], d.day(), MONTHS[d.month0() as usize], d.year())
+    format!(
+        "{} {} {} {}",
+        DAYS[d.weekday().num_days_from_monday() as usize],
+        d.day(),
+        MONTHS[d.month0() as usize],
+        d.year()
+    )
 }
 
 /// "2024-05-03".
@@ -95,7 +113,11 @@ pub fn clock(d: NaiveDateTime) -> String {
 /// One CSV field: quoted when needed; text a spreadsheet would run as a
 /// formula (a label starting with `=`, `+`, `-` or `@`) gets a leading apostrophe.
 fn field(text: &str, guard: bool) -> String {
-    let guarded = if guard && text.starts_with(['=', '+', '-', '@']) { format!("'{text}") } else { text.to_string() };
+    let guarded = if guard && text.starts_with(['=', '+', '-', '@']) {
+        format!("'{text}")
+    } else {
+        text.to_string()
+    };
     if guarded.contains([',', '"', '\n', '\r']) {
         format!("\"{}\"", guarded.replace('"', "\"\""))
     } else {
@@ -138,14 +160,34 @@ mod tests {
     const MAY: i64 = 1_714_745_100_000; // 2024-05-03T14:05:00Z
 
     fn entry(id: &str, t: i64, label: &str, eyes: usize) -> Entry {
-        let r = EyeSummary { eye: "R".into(), input: "-8.00 -2.00 ×180".into(), result: "-7.30 -1.63 ×180".into(), order: Some("-7.25 -1.75 ×180".into()) };
-        let l = EyeSummary { eye: "L".into(), input: "-4.00 DS".into(), result: "-3.82 DS".into(), order: None };
-        Entry::new(id.into(), t, "vertex".into(), "r=-8.00".into(), label.into(), [r, l].into_iter().take(eyes).collect())
+        let r = EyeSummary {
+            eye: "R".into(),
+            input: "-8.00 -2.00 ×180".into(),
+            result: "-7.30 -1.63 ×180".into(),
+            order: Some("-7.25 -1.75 ×180".into()),
+        };
+        let l = EyeSummary {
+            eye: "L".into(),
+            input: "-4.00 DS".into(),
+            result: "-3.82 DS".into(),
+            order: None,
+        };
+        Entry::new(
+            id.into(),
+            t,
+            "vertex".into(),
+            "r=-8.00".into(),
+            label.into(),
+            [r, l].into_iter().take(eyes).collect(),
+        )
     }
 
     #[test]
     fn csv_has_one_row_per_eye_in_local_time_and_trade_notation() {
-        let entries = [entry("a", MAY, "Room 2, bench", 2), entry("b", MAY + 3_600_000, "=SUM(A1)", 1)];
+        let entries = [
+            entry("a", MAY, "Room 2, bench", 2),
+            entry("b", MAY + 3_600_000, "=SUM(A1)", 1),
+        ];
         let two_hours_east = FixedOffset::east_opt(2 * 3600).unwrap();
         let csv = to_csv(&entries, &two_hours_east);
         assert_eq!(
@@ -161,7 +203,10 @@ mod tests {
     fn local_dates_cross_midnight_by_the_offset() {
         let west = FixedOffset::west_opt(15 * 3600).unwrap();
         let d = local(MAY, &west);
-        assert_eq!((iso_date(d), clock(d), day_words(d)), ("2024-05-02".into(), "23:05".into(), "Thu 2 May 2024".into()));
+        assert_eq!(
+            (iso_date(d), clock(d), day_words(d)),
+            ("2024-05-02".into(), "23:05".into(), "Thu 2 May 2024".into())
+        );
     }
 
     #[test]
@@ -178,11 +223,17 @@ mod tests {
         assert!(refused("<html>").contains("not a Lensplane history export (JSON)"));
         assert!(refused("{\"entries\":[]}").contains("not a Lensplane history export"));
         assert!(refused("{\"format\":\"lensplane-history\",\"schema\":7,\"entries\":[]}").contains("newer version"));
-        assert!(refused("{\"format\":\"lensplane-history\",\"schema\":2,\"entries\":[{\"id\":1}]}").contains("entry 1 is incomplete"));
+        assert!(
+            refused("{\"format\":\"lensplane-history\",\"schema\":2,\"entries\":[{\"id\":1}]}")
+                .contains("entry 1 is incomplete")
+        );
         let mut bad = entry("x", MAY, "", 1);
         bad.p = "elsewhere".into();
         assert!(refused(&to_json(&[bad])).contains("unknown panel"));
-        let huge = format!("{{\"format\":\"lensplane-history\",\"schema\":2,\"pad\":\"{}\"}}", "x".repeat(IMPORT_MAX));
+        let huge = format!(
+            "{{\"format\":\"lensplane-history\",\"schema\":2,\"pad\":\"{}\"}}",
+            "x".repeat(IMPORT_MAX)
+        );
         assert!(refused(&huge).contains("larger than 6 MB"));
         for t in ["<html>", &huge] {
             assert!(refused(t).ends_with("Nothing was changed."));
@@ -193,7 +244,11 @@ mod tests {
     fn import_skips_duplicates_and_a_bad_file_changes_nothing() {
         let mut s = Store::open(Memory::default());
         s.add(entry("a", MAY, "", 1)).unwrap();
-        let file = to_json(&[entry("a", MAY, "", 1), entry("b", MAY + 1, "", 1), entry("b", MAY + 1, "", 1)]);
+        let file = to_json(&[
+            entry("a", MAY, "", 1),
+            entry("b", MAY + 1, "", 1),
+            entry("b", MAY + 1, "", 1),
+        ]);
         let report = s.import(&file).unwrap();
         assert_eq!((report.added, report.duplicates), (1, 2));
         let again = s.import(&file).unwrap();
@@ -214,7 +269,10 @@ mod tests {
 
     #[test]
     fn counts_read_as_words_and_the_size_limit_matches_its_message() {
-        assert_eq!([entries_words(0), entries_words(1), entries_words(2)], ["0 entries", "1 entry", "2 entries"]);
+        assert_eq!(
+            [entries_words(0), entries_words(1), entries_words(2)],
+            ["0 entries", "1 entry", "2 entries"]
+        );
         assert_eq!(IMPORT_MAX, 6_000_000);
         assert!(TOO_LARGE.contains("larger than 6 MB"));
     }
@@ -222,7 +280,11 @@ mod tests {
     #[test]
     fn one_id_twice_in_a_file_is_imported_once_even_at_different_times() {
         let mut s = Store::open(Memory::default());
-        let file = to_json(&[entry("z", MAY + 7_200_000, "later", 1), entry("m", MAY + 60_000, "", 1), entry("z", MAY, "earlier", 1)]);
+        let file = to_json(&[
+            entry("z", MAY + 7_200_000, "later", 1),
+            entry("m", MAY + 60_000, "", 1),
+            entry("z", MAY, "earlier", 1),
+        ]);
         let report = s.import(&file).unwrap();
         assert_eq!((report.added, report.duplicates), (2, 1));
         let kept: Vec<(&str, &str)> = s.entries().iter().map(|e| (e.id.as_str(), e.l.as_str())).collect();

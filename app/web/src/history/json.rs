@@ -94,7 +94,11 @@ impl<'a> Reader<'a> {
 
     /// A reader resuming at byte `at` (a position an earlier reader reported).
     pub fn starting_at(text: &'a str, at: usize) -> Reader<'a> {
-        Reader { text, bytes: text.as_bytes(), at }
+        Reader {
+            text,
+            bytes: text.as_bytes(),
+            at,
+        }
     }
 
     /// Where the reader is, in bytes.
@@ -151,7 +155,11 @@ impl<'a> Reader<'a> {
     }
 
     /// Reads `{…}`, calling `field` with each key and the reader at its value.
-    pub fn object(&mut self, depth: usize, mut field: impl FnMut(&mut Self, &str) -> Result<(), String>) -> Result<(), String> {
+    pub fn object(
+        &mut self,
+        depth: usize,
+        mut field: impl FnMut(&mut Self, &str) -> Result<(), String>,
+    ) -> Result<(), String> {
         self.seq(depth, b'{', b'}', |r| {
             if r.peek() != Some(b'"') {
                 return Err(r.fail());
@@ -165,7 +173,13 @@ impl<'a> Reader<'a> {
         })
     }
 
-    fn seq(&mut self, depth: usize, open: u8, close: u8, mut each: impl FnMut(&mut Self) -> Result<(), String>) -> Result<(), String> {
+    fn seq(
+        &mut self,
+        depth: usize,
+        open: u8,
+        close: u8,
+        mut each: impl FnMut(&mut Self) -> Result<(), String>,
+    ) -> Result<(), String> {
         if depth > DEPTH || self.peek() != Some(open) {
             return Err(self.fail());
         }
@@ -219,11 +233,16 @@ impl<'a> Reader<'a> {
                     self.at += 1;
                 }
                 let digits = &self.bytes[start..self.at];
-                let leading_zero = digits.strip_prefix(b"-").unwrap_or(digits).starts_with(b"0") && digits.len() > 1 + usize::from(digits[0] == b'-');
+                let leading_zero = digits.strip_prefix(b"-").unwrap_or(digits).starts_with(b"0")
+                    && digits.len() > 1 + usize::from(digits[0] == b'-');
                 if leading_zero || matches!(self.bytes.get(self.at), Some(b'.' | b'e' | b'E')) {
                     return Err(self.fail());
                 }
-                self.text[start..self.at].parse().ok().map(Value::Int).ok_or_else(|| self.fail())
+                self.text[start..self.at]
+                    .parse()
+                    .ok()
+                    .map(Value::Int)
+                    .ok_or_else(|| self.fail())
             }
             _ => Err(self.fail()),
         }
@@ -235,7 +254,11 @@ impl<'a> Reader<'a> {
     }
 
     fn hex4(&mut self) -> Result<u32, String> {
-        let h = self.bytes.get(self.at..self.at + 4).and_then(|h| std::str::from_utf8(h).ok()).and_then(|h| u32::from_str_radix(h, 16).ok());
+        let h = self
+            .bytes
+            .get(self.at..self.at + 4)
+            .and_then(|h| std::str::from_utf8(h).ok())
+            .and_then(|h| u32::from_str_radix(h, 16).ok());
         self.at += 4;
         h.ok_or_else(|| self.fail())
     }
@@ -400,9 +423,21 @@ mod tests {
         fn clone_sorted_like(&self, like: &Value) -> Value {
             match (self, like) {
                 (Value::Obj(a), Value::Obj(b)) => Value::Obj(
-                    b.iter().map(|(k, lv)| (k.clone(), a.iter().find(|(ak, _)| ak == k).map(|(_, v)| v.clone_sorted_like(lv)).unwrap_or(Value::Null))).collect(),
+                    b.iter()
+                        .map(|(k, lv)| {
+                            (
+                                k.clone(),
+                                a.iter()
+                                    .find(|(ak, _)| ak == k)
+                                    .map(|(_, v)| v.clone_sorted_like(lv))
+                                    .unwrap_or(Value::Null),
+                            )
+                        })
+                        .collect(),
                 ),
-                (Value::Arr(a), Value::Arr(b)) => Value::Arr(a.iter().zip(b).map(|(x, y)| x.clone_sorted_like(y)).collect()),
+                (Value::Arr(a), Value::Arr(b)) => {
+                    Value::Arr(a.iter().zip(b).map(|(x, y)| x.clone_sorted_like(y)).collect())
+                }
                 _ => self.clone(),
             }
         }
@@ -410,7 +445,22 @@ mod tests {
 
     #[test]
     fn refuses_what_is_not_json_or_not_ours() {
-        for bad in ["", "{", "[1,]", "{\"a\" 1}", "{a:1}", "01", "1.5", "1e3", "\"\u{1}\"", "\"\\x\"", "tru", "[1] x", "\"open", "\"\\ud800\\u0041\""] {
+        for bad in [
+            "",
+            "{",
+            "[1,]",
+            "{\"a\" 1}",
+            "{a:1}",
+            "01",
+            "1.5",
+            "1e3",
+            "\"\u{1}\"",
+            "\"\\x\"",
+            "tru",
+            "[1] x",
+            "\"open",
+            "\"\\ud800\\u0041\"",
+        ] {
             assert!(parse(bad).is_err(), "{bad:?}");
         }
         let deep = "[".repeat(100) + &"]".repeat(100);
@@ -419,7 +469,14 @@ mod tests {
 
     #[test]
     fn what_it_writes_serde_json_reads_back() {
-        let tricky = ["plain", "quote \" backslash \\ slash /", "line\nfeed\ttab\r", "\u{1}\u{1f}", "×−° é 😀", "</script><b>"];
+        let tricky = [
+            "plain",
+            "quote \" backslash \\ slash /",
+            "line\nfeed\ttab\r",
+            "\u{1}\u{1f}",
+            "×−° é 😀",
+            "</script><b>",
+        ];
         for s in tricky {
             let mut out = String::new();
             quote(&mut out, s);

@@ -10,15 +10,15 @@
 //! with an in-memory backend for tests), [`export`] (JSON/CSV, import checks,
 //! local times) and `browser` (localStorage through gloo-storage).
 
+mod browser;
 pub mod export;
 pub mod json;
 pub mod schema;
 pub mod store;
-mod browser;
 
+use crate::link::{Destination, Query};
 pub use browser::download;
 use browser::Browser;
-use crate::link::{Destination, Query};
 use leptos::prelude::*;
 use schema::{Entry, PERSIST_ASKED_KEY};
 use store::{Backend, Mode, Store};
@@ -65,7 +65,10 @@ pub struct History {
 
 impl History {
     pub fn new() -> History {
-        History { store: StoredValue::new_local(None), rev: RwSignal::new(0) }
+        History {
+            store: StoredValue::new_local(None),
+            rev: RwSignal::new(0),
+        }
     }
 
     /// Opens the store if it is not open yet. The months are then read in
@@ -95,14 +98,19 @@ impl History {
             }
             (changed, s.is_reading())
         };
-        let Some((changed, more)) = self.store.try_update_value(|s| s.as_mut().map(step)).flatten() else { return };
+        let Some((changed, more)) = self.store.try_update_value(|s| s.as_mut().map(step)).flatten() else {
+            return;
+        };
         let spent = js_sys::Date::now() - started;
         if changed && notify {
             self.rev.update(|r| *r += 1);
         }
         let (busy, longest) = (busy + spent, longest.max(spent));
         if more {
-            set_timeout(move || self.read_slice(busy, longest, slices + 1, true), std::time::Duration::ZERO);
+            set_timeout(
+                move || self.read_slice(busy, longest, slices + 1, true),
+                std::time::Duration::ZERO,
+            );
         } else {
             // Read by the benchmark script (tests/bench/history-bench.mjs).
             let global = js_sys::global();
@@ -133,7 +141,10 @@ impl History {
 
     fn update<R>(&self, f: impl FnOnce(&mut Store<Browser>) -> R) -> R {
         self.open();
-        let out = self.store.try_update_value(|s| f(s.as_mut().expect("opened"))).expect("the store lives as long as the app");
+        let out = self
+            .store
+            .try_update_value(|s| f(s.as_mut().expect("opened")))
+            .expect("the store lives as long as the app");
         self.rev.update(|r| *r += 1);
         out
     }
@@ -144,14 +155,25 @@ impl History {
         let id = format!("{t:x}-{:x}", (js_sys::Math::random() * 4_294_967_296.0) as u32);
         let label: String = request.label.trim().chars().take(schema::LABEL_MAX).collect();
         let query = request.query.encode(request.panel.keys());
-        let entry = Entry::new(id, t, schema::panel_name(request.panel).into(), query, label, request.eyes);
+        let entry = Entry::new(
+            id,
+            t,
+            schema::panel_name(request.panel).into(),
+            query,
+            label,
+            request.eyes,
+        );
         self.update(|s| {
             s.add(entry)?;
             match &s.mode {
-                Mode::SessionOnly(_) => Ok("Saved for this session only: this browser is not keeping stored data.".into()),
+                Mode::SessionOnly(_) => {
+                    Ok("Saved for this session only: this browser is not keeping stored data.".into())
+                }
                 Mode::Durable => {
                     // Ask once, ever, for storage the browser will not evict.
-                    if matches!(s.backend().read(PERSIST_ASKED_KEY), Ok(None)) && s.backend_mut().write(PERSIST_ASKED_KEY, "1").is_ok() {
+                    if matches!(s.backend().read(PERSIST_ASKED_KEY), Ok(None))
+                        && s.backend_mut().write(PERSIST_ASKED_KEY, "1").is_ok()
+                    {
                         browser::ask_persistence();
                     }
                     Ok("Saved to this device's history.".into())
@@ -180,7 +202,6 @@ impl History {
     pub fn discard_aside(&self) -> Result<(), String> {
         self.update(|s| s.discard_aside())
     }
-
 }
 
 impl Default for History {

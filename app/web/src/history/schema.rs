@@ -60,12 +60,21 @@ pub struct Manifest {
 
 impl Manifest {
     pub fn to_json(&self) -> String {
-        format!("{{\"schema\":{},\"next\":{},\"chunks\":{}}}", self.schema, self.next, super::json::pairs(&self.chunks))
+        format!(
+            "{{\"schema\":{},\"next\":{},\"chunks\":{}}}",
+            self.schema,
+            self.next,
+            super::json::pairs(&self.chunks)
+        )
     }
 
     pub fn read(v: &Value) -> Option<Manifest> {
         let next = v.get("next")?.int().filter(|n| *n >= 0)? as u64;
-        Some(Manifest { schema: v.get("schema")?.int()?, next, chunks: read_pairs(v.get("chunks")?)? })
+        Some(Manifest {
+            schema: v.get("schema")?.int()?,
+            next,
+            chunks: read_pairs(v.get("chunks")?)?,
+        })
     }
 }
 
@@ -83,7 +92,12 @@ fn read_eye(v: Value) -> Option<EyeSummary> {
             _ => {}
         }
     }
-    Some(EyeSummary { eye: eye?, input: input?, result: result?, order })
+    Some(EyeSummary {
+        eye: eye?,
+        input: input?,
+        result: result?,
+        order,
+    })
 }
 
 /// Reads a stored month's entries a few at a time, so a large history can
@@ -169,7 +183,12 @@ fn read_eye_streamed(r: &mut Reader) -> Result<EyeSummary, String> {
         Ok(())
     })?;
     match (eye, input, result) {
-        (Some(eye), Some(input), Some(result)) => Ok(EyeSummary { eye, input, result, order }),
+        (Some(eye), Some(input), Some(result)) => Ok(EyeSummary {
+            eye,
+            input,
+            result,
+            order,
+        }),
         _ => Err(r.fail()),
     }
 }
@@ -222,11 +241,23 @@ pub fn read_v1(v: &Value) -> Option<Entry> {
         .iter()
         .map(|e| {
             let order = Some(e.text("order", true)?).filter(|o| !o.is_empty());
-            Some(EyeSummary { eye: e.text("eye", false)?, input: e.text("input", false)?, result: e.text("result", false)?, order })
+            Some(EyeSummary {
+                eye: e.text("eye", false)?,
+                input: e.text("input", false)?,
+                result: e.text("result", false)?,
+                order,
+            })
         })
         .collect::<Option<Vec<_>>>()?;
     let t = v.get("time")?.int()?.checked_mul(1000)?;
-    Some(Entry::new(v.text("id", false)?, t, path.trim_start_matches('/').into(), query.into(), v.text("label", true)?, eyes))
+    Some(Entry::new(
+        v.text("id", false)?,
+        t,
+        path.trim_start_matches('/').into(),
+        query.into(),
+        v.text("label", true)?,
+        eyes,
+    ))
 }
 
 /// The panel name stored for a destination.
@@ -289,7 +320,15 @@ pub fn fold(text: &str) -> String {
 
 impl Entry {
     pub fn new(id: String, t: i64, p: String, q: String, l: String, e: Vec<EyeSummary>) -> Entry {
-        let mut entry = Entry { id, t, p, q, l, e, search: String::new() };
+        let mut entry = Entry {
+            id,
+            t,
+            p,
+            q,
+            l,
+            e,
+            search: String::new(),
+        };
         entry.index();
         entry
     }
@@ -316,7 +355,12 @@ impl Entry {
                 out.push(',');
             }
             out.push('{');
-            for (k, v) in [("s", Some(&eye.eye)), ("i", Some(&eye.input)), ("r", Some(&eye.result)), ("o", eye.order.as_ref())] {
+            for (k, v) in [
+                ("s", Some(&eye.eye)),
+                ("i", Some(&eye.input)),
+                ("r", Some(&eye.result)),
+                ("o", eye.order.as_ref()),
+            ] {
                 if let Some(v) = v {
                     key(out, k);
                     quote(out, v);
@@ -387,7 +431,12 @@ impl Entry {
         line(&self.l);
         line(panel_of(&self.p).map(panel_words).unwrap_or(""));
         for eye in &self.e {
-            for part in [eye.eye.as_str(), &eye.input, &eye.result, eye.order.as_deref().unwrap_or("")] {
+            for part in [
+                eye.eye.as_str(),
+                &eye.input,
+                &eye.result,
+                eye.order.as_deref().unwrap_or(""),
+            ] {
                 line(part);
             }
         }
@@ -415,7 +464,9 @@ impl Entry {
         use chrono::NaiveDate;
         let (y, m) = month.split_once('-')?;
         let (y, m): (i32, u32) = (y.parse().ok()?, m.parse().ok()?);
-        let start = |y, m| NaiveDate::from_ymd_opt(y, m, 1).map(|d| d.and_time(chrono::NaiveTime::MIN).and_utc().timestamp_millis());
+        let start = |y, m| {
+            NaiveDate::from_ymd_opt(y, m, 1).map(|d| d.and_time(chrono::NaiveTime::MIN).and_utc().timestamp_millis())
+        };
         let (ny, nm) = if m == 12 { (y + 1, 1) } else { (y, m + 1) };
         Some(start(y, m)?..start(ny, nm)?)
     }
@@ -435,14 +486,20 @@ impl Entry {
             return Some(format!("entry {} names an unknown panel", self.id));
         }
         if self.l.len() > LABEL_MAX && self.l.chars().count() > LABEL_MAX {
-            return Some(format!("entry {} has a label longer than {LABEL_MAX} characters", self.id));
+            return Some(format!(
+                "entry {} has a label longer than {LABEL_MAX} characters",
+                self.id
+            ));
         }
         if too_long(&self.q) || self.e.is_empty() || self.e.len() > 2 {
             return Some(format!("entry {} has no usable calculation", self.id));
         }
         for eye in &self.e {
             let parts = [&eye.input, &eye.result];
-            if !(eye.eye == "R" || eye.eye == "L") || parts.iter().any(|s| too_long(s)) || eye.order.as_deref().is_some_and(too_long) {
+            if !(eye.eye == "R" || eye.eye == "L")
+                || parts.iter().any(|s| too_long(s))
+                || eye.order.as_deref().is_some_and(too_long)
+            {
                 return Some(format!("entry {} has an unreadable eye", self.id));
             }
         }
@@ -455,7 +512,12 @@ mod tests {
     use super::*;
 
     fn eye(e: &str) -> EyeSummary {
-        EyeSummary { eye: e.into(), input: "-8.00 -2.00 ×180".into(), result: "-7.30 -1.63 ×180".into(), order: None }
+        EyeSummary {
+            eye: e.into(),
+            input: "-8.00 -2.00 ×180".into(),
+            result: "-7.30 -1.63 ×180".into(),
+            order: None,
+        }
     }
 
     #[test]
@@ -474,9 +536,23 @@ mod tests {
 
     #[test]
     fn search_text_reads_typographic_signs_as_typed_ones() {
-        let e = Entry::new("x".into(), 1_714_745_100_000, "vertex".into(), String::new(), "Bench B".into(), vec![eye("R")]);
+        let e = Entry::new(
+            "x".into(),
+            1_714_745_100_000,
+            "vertex".into(),
+            String::new(),
+            "Bench B".into(),
+            vec![eye("R")],
+        );
         assert!(e.search.contains("-8.00 -2.00 x180"), "{}", e.search);
-        let spaced = Entry::new("y".into(), 1_714_745_100_000, "near".into(), String::new(), "  Room\t 2 ".into(), vec![eye("L")]);
+        let spaced = Entry::new(
+            "y".into(),
+            1_714_745_100_000,
+            "near".into(),
+            String::new(),
+            "  Room\t 2 ".into(),
+            vec![eye("L")],
+        );
         assert_eq!(spaced.search, "room 2\nnear\nl\n-8.00 -2.00 x180\n-7.30 -1.63 x180\n\n");
         assert!(e.search.contains("bench b") && e.search.contains("vertex"));
         assert_eq!(fold("−2.00 × 90°"), "-2.00 x 90");
@@ -484,7 +560,14 @@ mod tests {
 
     #[test]
     fn entries_are_checked_field_by_field() {
-        let ok = Entry::new("x".into(), 1_714_745_100_000, "vertex".into(), String::new(), String::new(), vec![eye("R")]);
+        let ok = Entry::new(
+            "x".into(),
+            1_714_745_100_000,
+            "vertex".into(),
+            String::new(),
+            String::new(),
+            vec![eye("R")],
+        );
         assert_eq!(ok.problem(), None);
         let bad = |f: &dyn Fn(&mut Entry)| {
             let mut e = ok.clone();
@@ -501,7 +584,14 @@ mod tests {
 
     #[test]
     fn entries_written_read_back_identically_and_serde_json_agrees() {
-        let mut e = Entry::new("a\"1".into(), 1_714_745_100_000, "vertex".into(), "r=-8.00".into(), "Room <2>".into(), vec![eye("R"), eye("L")]);
+        let mut e = Entry::new(
+            "a\"1".into(),
+            1_714_745_100_000,
+            "vertex".into(),
+            "r=-8.00".into(),
+            "Room <2>".into(),
+            vec![eye("R"), eye("L")],
+        );
         e.e[1].order = Some("-7.25 -1.75 ×180".into());
         e.index();
         let mut out = String::new();
@@ -519,7 +609,9 @@ mod tests {
     #[test]
     fn a_month_read_straight_from_text_matches_the_general_reader() {
         let via_values = |t: &str| -> Option<Vec<Entry>> {
-            let Value::Arr(items) = super::super::json::parse(t).ok()? else { return None };
+            let Value::Arr(items) = super::super::json::parse(t).ok()? else {
+                return None;
+            };
             items.into_iter().map(Entry::read).collect()
         };
         let eye = r#"{"s":"R","i":"-8.00 -2.00 ×180","r":"-7.30 -1.63 ×180"}"#;
@@ -557,14 +649,26 @@ mod tests {
 
     #[test]
     fn a_month_span_holds_exactly_the_entries_of_that_month() {
-        let at = |t: i64| Entry::new("x".into(), t, "vertex".into(), String::new(), String::new(), vec![eye("R")]);
+        let at = |t: i64| {
+            Entry::new(
+                "x".into(),
+                t,
+                "vertex".into(),
+                String::new(),
+                String::new(),
+                vec![eye("R")],
+            )
+        };
         let may = Entry::month_span("2024-05").unwrap();
         assert_eq!(at(may.start).month(), "2024-05");
         assert_eq!(at(may.start - 1).month(), "2024-04");
         assert_eq!(at(may.end - 1).month(), "2024-05");
         assert_eq!(at(may.end).month(), "2024-06");
         let dec = Entry::month_span("2024-12").unwrap();
-        assert_eq!((at(dec.start).month(), at(dec.end).month()), ("2024-12".to_string(), "2025-01".to_string()));
+        assert_eq!(
+            (at(dec.start).month(), at(dec.end).month()),
+            ("2024-12".to_string(), "2025-01".to_string())
+        );
         assert_eq!(Entry::month_span("2024-13"), None);
         assert_eq!(Entry::month_span("May"), None);
     }
@@ -580,7 +684,14 @@ mod tests {
     #[test]
     fn months_are_taken_in_utc() {
         // 2024-05-31T23:30:00Z is June somewhere east of Greenwich, May in storage.
-        let e = Entry::new("x".into(), 1_717_198_200_000, "vertex".into(), String::new(), String::new(), vec![eye("R")]);
+        let e = Entry::new(
+            "x".into(),
+            1_717_198_200_000,
+            "vertex".into(),
+            String::new(),
+            String::new(),
+            vec![eye("R")],
+        );
         assert_eq!(e.month(), "2024-05");
     }
 }

@@ -79,7 +79,10 @@ pub struct Memory {
 
 impl Memory {
     pub fn used(&self) -> usize {
-        self.map.iter().map(|(k, v)| k.chars().count() + v.chars().count()).sum()
+        self.map
+            .iter()
+            .map(|(k, v)| k.chars().count() + v.chars().count())
+            .sum()
     }
 }
 
@@ -132,7 +135,8 @@ pub enum Mode {
 pub type Problem = String;
 
 pub const FULL: &str = "Not saved: this device's storage is full. Nothing already saved was lost, and the calculation stays on screen. Export the history, then delete old entries to make room.";
-const REFUSED: &str = "Not saved: the browser refused to store it. Nothing already saved was lost, and the calculation stays on screen.";
+const REFUSED: &str =
+    "Not saved: the browser refused to store it. Nothing already saved was lost, and the calculation stays on screen.";
 pub const SESSION_ONLY: &str = "This browser is not letting Lensplane store anything (storage is disabled or private browsing blocks it). Calculations work, and the history keeps entries for this session only: they will be gone when the page is closed.";
 const ASIDE_NOTE: &str = "Some stored history could not be read. It has been kept aside, untouched: export it below to keep a copy. Everything else works as usual.";
 const ASIDE_UNSAVED: &str = "Some stored history could not be read and the device has no room to set it aside, so it was left exactly as found. Until that is resolved, new entries are kept for this session only.";
@@ -192,7 +196,10 @@ impl<B: Backend> Store<B> {
             backend,
             mode: Mode::Durable,
             entries: Vec::new(),
-            manifest: Manifest { schema: SCHEMA, ..Manifest::default() },
+            manifest: Manifest {
+                schema: SCHEMA,
+                ..Manifest::default()
+            },
             aside: Vec::new(),
             notices: Vec::new(),
             unread: Vec::new(),
@@ -223,7 +230,9 @@ impl<B: Backend> Store<B> {
                 match self.backend.read(&key) {
                     Ok(Some(text)) => self.reading = Some((month, key, MonthReader::new(text), Vec::new())),
                     // A month the manifest names but storage lost: nothing to keep.
-                    Ok(None) | Err(_) => self.notices.push(format!("The saved history of {month} was missing from storage.")),
+                    Ok(None) | Err(_) => self
+                        .notices
+                        .push(format!("The saved history of {month} was missing from storage.")),
                 }
                 continue;
             }
@@ -295,7 +304,10 @@ impl<B: Backend> Store<B> {
             None => self.migrate_v1(&mut unreadable),
             Some(text) => {
                 let parsed = json::parse(&text).ok();
-                match parsed.as_ref().map(|v| (v.get("schema").and_then(Value::int), Manifest::read(v))) {
+                match parsed
+                    .as_ref()
+                    .map(|v| (v.get("schema").and_then(Value::int), Manifest::read(v)))
+                {
                     Some((Some(s), _)) if s > SCHEMA => return self.session_only(NEWER),
                     Some((Some(SCHEMA), Some(m))) => self.load_chunks(m),
                     _ => unreadable.push((MANIFEST_KEY.into(), text)),
@@ -317,7 +329,12 @@ impl<B: Backend> Store<B> {
     /// month key still present, writes the entries found under a new
     /// manifest, and only then removes the keys they came from.
     fn recover(&mut self) {
-        let keys: Vec<String> = self.backend.keys().into_iter().filter(|k| k.starts_with(CHUNK_PREFIX)).collect();
+        let keys: Vec<String> = self
+            .backend
+            .keys()
+            .into_iter()
+            .filter(|k| k.starts_with(CHUNK_PREFIX))
+            .collect();
         let mut found: Vec<Entry> = Vec::new();
         let mut unreadable = Vec::new();
         for key in &keys {
@@ -347,11 +364,17 @@ impl<B: Backend> Store<B> {
         let months = months(self.entries.iter());
         match self.commit(months) {
             Ok(()) => {
-                let stale: Vec<&String> = keys.iter().filter(|k| !self.manifest.chunks.iter().any(|(_, c)| c == *k)).collect();
+                let stale: Vec<&String> = keys
+                    .iter()
+                    .filter(|k| !self.manifest.chunks.iter().any(|(_, c)| c == *k))
+                    .collect();
                 for k in stale {
                     self.backend.remove(k);
                 }
-                self.notices.push(format!("Recovered {}.", super::export::entries_words(self.entries.len())));
+                self.notices.push(format!(
+                    "Recovered {}.",
+                    super::export::entries_words(self.entries.len())
+                ));
             }
             Err(_) => self.session_only(ASIDE_UNSAVED),
         }
@@ -359,13 +382,19 @@ impl<B: Backend> Store<B> {
 
     /// Queues the manifest's months for [`Store::read_more`].
     fn load_chunks(&mut self, m: Manifest) {
-        self.manifest = Manifest { schema: SCHEMA, next: m.next, chunks: Vec::new() };
+        self.manifest = Manifest {
+            schema: SCHEMA,
+            next: m.next,
+            chunks: Vec::new(),
+        };
         self.unread = m.chunks;
         self.unread.sort();
     }
 
     fn migrate_v1(&mut self, unreadable: &mut Vec<(String, String)>) {
-        let Ok(Some(text)) = self.backend.read(V1_KEY) else { return };
+        let Ok(Some(text)) = self.backend.read(V1_KEY) else {
+            return;
+        };
         let old = json::parse(&text).ok();
         let migrated: Option<Vec<Entry>> = old
             .as_ref()
@@ -382,7 +411,9 @@ impl<B: Backend> Store<B> {
                 match self.commit(months) {
                     Ok(()) if self.mode == Mode::Durable => self.backend.remove(V1_KEY),
                     Ok(()) => {}
-                    Err(p) => self.notices.push(format!("The history was upgraded for this session, but could not be stored in the new form yet ({p})")),
+                    Err(p) => self.notices.push(format!(
+                        "The history was upgraded for this session, but could not be stored in the new form yet ({p})"
+                    )),
                 }
             }
         }
@@ -405,7 +436,11 @@ impl<B: Backend> Store<B> {
                 }
                 if found.iter().any(|(k, _)| k == MANIFEST_KEY) {
                     // A fresh manifest replaces the unreadable one (already copied aside).
-                    self.manifest = Manifest { schema: SCHEMA, next: self.manifest.next, chunks: Vec::new() };
+                    self.manifest = Manifest {
+                        schema: SCHEMA,
+                        next: self.manifest.next,
+                        chunks: Vec::new(),
+                    };
                     if self.write_manifest(&self.manifest.clone()).is_err() {
                         self.session_only(ASIDE_UNSAVED);
                         return;
@@ -443,7 +478,10 @@ impl<B: Backend> Store<B> {
             // Entries are in time order: the month is one run of them.
             debug_assert!(self.entries.is_sorted_by_key(|e| e.t));
             let span = Entry::month_span(month).unwrap_or(0..0);
-            let (from, to) = (self.entries.partition_point(|e| e.t < span.start), self.entries.partition_point(|e| e.t < span.end));
+            let (from, to) = (
+                self.entries.partition_point(|e| e.t < span.start),
+                self.entries.partition_point(|e| e.t < span.end),
+            );
             let list: Vec<&Entry> = self.entries[from..to].iter().collect();
             if list.is_empty() {
                 continue;
@@ -471,7 +509,12 @@ impl<B: Backend> Store<B> {
     }
 
     fn undo_writes(&mut self, fresh: &[String], failed: &str) {
-        for k in fresh.iter().map(String::as_str).chain([failed]).filter(|k| !k.is_empty()) {
+        for k in fresh
+            .iter()
+            .map(String::as_str)
+            .chain([failed])
+            .filter(|k| !k.is_empty())
+        {
             self.backend.remove(k);
         }
     }
@@ -506,7 +549,11 @@ impl<B: Backend> Store<B> {
     /// Deletes an entry, returning it (for undo).
     pub fn delete(&mut self, id: &str) -> Result<Entry, Problem> {
         self.finish_reading();
-        let pos = self.entries.iter().position(|e| e.id == id).ok_or_else(|| "That entry is no longer in the history.".to_string())?;
+        let pos = self
+            .entries
+            .iter()
+            .position(|e| e.id == id)
+            .ok_or_else(|| "That entry is no longer in the history.".to_string())?;
         let entry = self.entries.remove(pos);
         match self.commit(vec![entry.month()]) {
             Ok(()) => Ok(entry),
@@ -539,7 +586,10 @@ impl<B: Backend> Store<B> {
         let total = incoming.len();
         let mut seen: Vec<&str> = self.entries.iter().map(|e| e.id.as_str()).collect();
         seen.sort_unstable();
-        let mut added: Vec<Entry> = incoming.into_iter().filter(|e| seen.binary_search(&e.id.as_str()).is_err()).collect();
+        let mut added: Vec<Entry> = incoming
+            .into_iter()
+            .filter(|e| seen.binary_search(&e.id.as_str()).is_err())
+            .collect();
         // Repeats within the file, even with different times: the earliest of each id is kept.
         added.sort_unstable_by(|a, b| (&a.id, a.t).cmp(&(&b.id, b.t)));
         added.dedup_by(|a, b| a.id == b.id);
@@ -554,7 +604,10 @@ impl<B: Backend> Store<B> {
         self.entries.extend(added);
         sort(&mut self.entries);
         match self.commit(months) {
-            Ok(()) => Ok(ImportReport { added: count, duplicates }),
+            Ok(()) => Ok(ImportReport {
+                added: count,
+                duplicates,
+            }),
             Err(p) => {
                 self.entries.retain(|e| !ids.contains(&e.id));
                 Err(p.replace("Not saved", "Nothing was imported"))
@@ -603,8 +656,20 @@ mod tests {
     const JUNE: i64 = 1_717_423_500_000; // 2024-06-03T14:05:00Z
 
     fn entry(id: &str, t: i64, label: &str) -> Entry {
-        let eye = EyeSummary { eye: "R".into(), input: "-8.00 -2.00 ×180".into(), result: "-7.30 -1.63 ×180".into(), order: Some("-7.25 -1.75 ×180".into()) };
-        Entry::new(id.into(), t, "vertex".into(), "r=-8.00%20-2.00%20x180&from=12&to=0".into(), label.into(), vec![eye])
+        let eye = EyeSummary {
+            eye: "R".into(),
+            input: "-8.00 -2.00 ×180".into(),
+            result: "-7.30 -1.63 ×180".into(),
+            order: Some("-7.25 -1.75 ×180".into()),
+        };
+        Entry::new(
+            id.into(),
+            t,
+            "vertex".into(),
+            "r=-8.00%20-2.00%20x180&from=12&to=0".into(),
+            label.into(),
+            vec![eye],
+        )
     }
 
     fn ids<B: Backend>(s: &Store<B>) -> Vec<&str> {
@@ -627,7 +692,10 @@ mod tests {
         assert_eq!(again.mode, Mode::Durable);
         assert!(again.notices.is_empty());
         // One manifest and one key per month, nothing else.
-        assert_eq!(s.backend().map.keys().filter(|k| k.starts_with(CHUNK_PREFIX)).count(), 2);
+        assert_eq!(
+            s.backend().map.keys().filter(|k| k.starts_with(CHUNK_PREFIX)).count(),
+            2
+        );
     }
 
     #[test]
@@ -649,7 +717,10 @@ mod tests {
         s.backend_mut().quota = Some(used + 50);
         let before = s.backend().map.clone();
         let err = s.add(entry("b", MAY + 1, "too much")).unwrap_err();
-        assert!(err.contains("storage is full") && err.contains("Nothing already saved was lost"), "{err}");
+        assert!(
+            err.contains("storage is full") && err.contains("Nothing already saved was lost"),
+            "{err}"
+        );
         assert_eq!(ids(&s), ["a"], "memory rolled back");
         assert_eq!(s.backend().map, before, "storage exactly as before");
         assert_eq!(ids(&reopen(s.backend())), ["a"]);
@@ -674,7 +745,10 @@ mod tests {
 
     #[test]
     fn unavailable_storage_gives_a_session_only_history() {
-        let mut s = Store::open(Memory { unavailable: true, ..Memory::default() });
+        let mut s = Store::open(Memory {
+            unavailable: true,
+            ..Memory::default()
+        });
         assert!(matches!(s.mode, Mode::SessionOnly(_)));
         assert!(s.notices[0].contains("session only"));
         s.add(entry("a", MAY, "")).unwrap();
@@ -689,12 +763,23 @@ mod tests {
         m.map.insert(MANIFEST_KEY.into(), "{\"schema\":2,\"chu".into());
         let s = Store::open(m);
         assert_eq!(s.mode, Mode::Durable);
-        assert!(s.notices.iter().any(|n| n.contains("could not be read")), "{:?}", s.notices);
-        assert_eq!(s.aside(), [(MANIFEST_KEY.to_string(), "{\"schema\":2,\"chu".to_string())]);
+        assert!(
+            s.notices.iter().any(|n| n.contains("could not be read")),
+            "{:?}",
+            s.notices
+        );
+        assert_eq!(
+            s.aside(),
+            [(MANIFEST_KEY.to_string(), "{\"schema\":2,\"chu".to_string())]
+        );
         // Kept in storage, and still there after reopening.
         let again = reopen(s.backend());
         assert_eq!(again.aside().len(), 1);
-        assert_eq!(again.notices, [ASIDE_NOTE], "the new manifest is readable; the aside is still mentioned");
+        assert_eq!(
+            again.notices,
+            [ASIDE_NOTE],
+            "the new manifest is readable; the aside is still mentioned"
+        );
         let mut again = again;
         again.discard_aside().unwrap();
         assert!(reopen(again.backend()).notices.is_empty());
@@ -710,10 +795,22 @@ mod tests {
         let again = Store::open(m);
         assert_eq!(ids(&again), ["a", "b"]);
         assert_eq!(again.aside(), [(MANIFEST_KEY.to_string(), "garbage".to_string())]);
-        assert!(again.notices.iter().any(|n| n == "Recovered 2 entries."), "{:?}", again.notices);
+        assert!(
+            again.notices.iter().any(|n| n == "Recovered 2 entries."),
+            "{:?}",
+            again.notices
+        );
         let third = reopen(again.backend());
         assert_eq!(ids(&third), ["a", "b"]);
-        assert_eq!(third.backend().map.keys().filter(|k| k.starts_with(CHUNK_PREFIX)).count(), 2);
+        assert_eq!(
+            third
+                .backend()
+                .map
+                .keys()
+                .filter(|k| k.starts_with(CHUNK_PREFIX))
+                .count(),
+            2
+        );
     }
 
     #[test]
@@ -721,12 +818,22 @@ mod tests {
         let mut s = Store::open(Memory::default());
         s.add(entry("a", MAY, "")).unwrap();
         s.add(entry("b", JUNE, "")).unwrap();
-        let june_key = s.manifest.chunks.iter().find(|(m, _)| m == "2024-06").unwrap().1.clone();
+        let june_key = s
+            .manifest
+            .chunks
+            .iter()
+            .find(|(m, _)| m == "2024-06")
+            .unwrap()
+            .1
+            .clone();
         s.backend_mut().map.insert(june_key.clone(), "[{\"id\":\"b\",".into());
         let mut again = reopen(s.backend());
         assert_eq!(ids(&again), ["a"]);
         assert_eq!(again.aside(), [(june_key.clone(), "[{\"id\":\"b\",".to_string())]);
-        assert!(!again.backend().map.contains_key(&june_key), "moved, after the aside copy was written");
+        assert!(
+            !again.backend().map.contains_key(&june_key),
+            "moved, after the aside copy was written"
+        );
         again.add(entry("c", JUNE, "")).unwrap();
         assert_eq!(ids(&reopen(again.backend())), ["a", "c"]);
         assert_eq!(reopen(again.backend()).aside().len(), 1);
@@ -748,7 +855,8 @@ mod tests {
     #[test]
     fn a_newer_schema_is_left_alone() {
         let mut m = Memory::default();
-        m.map.insert(MANIFEST_KEY.into(), "{\"schema\":9,\"whatever\":true}".into());
+        m.map
+            .insert(MANIFEST_KEY.into(), "{\"schema\":9,\"whatever\":true}".into());
         let before = m.map.clone();
         let mut s = Store::open(m);
         assert!(matches!(s.mode, Mode::SessionOnly(_)));
@@ -783,7 +891,12 @@ mod tests {
         near.p = "near".into();
         near.index();
         s.add(near).unwrap();
-        let found = |t: &str, p: Option<&str>| s.filter(t, p).into_iter().map(|i| s.entries()[i].id.clone()).collect::<Vec<_>>();
+        let found = |t: &str, p: Option<&str>| {
+            s.filter(t, p)
+                .into_iter()
+                .map(|i| s.entries()[i].id.clone())
+                .collect::<Vec<_>>()
+        };
         assert_eq!(found("", None), ["c", "b", "a"]);
         assert_eq!(found("ROOM 2", None), ["c", "a"]);
         assert_eq!(found("room", Some("vertex")), ["b", "a"]);
@@ -805,7 +918,10 @@ mod tests {
         let again = reopen(s.backend());
         assert!(again.entries().is_empty());
         assert_eq!(again.aside().len(), 1);
-        assert_eq!(s.backend().map.keys().filter(|k| k.starts_with(CHUNK_PREFIX)).count(), 0);
+        assert_eq!(
+            s.backend().map.keys().filter(|k| k.starts_with(CHUNK_PREFIX)).count(),
+            0
+        );
     }
 
     #[test]
@@ -823,11 +939,19 @@ mod tests {
     fn several_months() -> Memory {
         const APRIL: i64 = 1_712_153_100_000; // 2024-04-03T14:05:00Z
         let mut s = Store::open(Memory::default());
-        for (id, t) in [("a1", APRIL), ("a2", APRIL + 1), ("a3", APRIL + 2), ("m", MAY), ("j1", JUNE), ("j2", JUNE + 1)] {
+        for (id, t) in [
+            ("a1", APRIL),
+            ("a2", APRIL + 1),
+            ("a3", APRIL + 2),
+            ("m", MAY),
+            ("j1", JUNE),
+            ("j2", JUNE + 1),
+        ] {
             s.add(entry(id, t, "")).unwrap();
         }
         s.add(entry("x", 1_719_928_800_000, "")).unwrap(); // 2024-07-02
-        let key = |s: &Store<Memory>, month: &str| s.manifest.chunks.iter().find(|(m, _)| m == month).unwrap().1.clone();
+        let key =
+            |s: &Store<Memory>, month: &str| s.manifest.chunks.iter().find(|(m, _)| m == month).unwrap().1.clone();
         let (may, july) = (key(&s, "2024-05"), key(&s, "2024-07"));
         s.backend_mut().map.insert(may, "[{\"id\":\"m\",\"t\":1}]".into());
         s.backend_mut().map.remove(&july);

@@ -26,7 +26,10 @@ pub type EyeOutcome = (Card, EyeSummary);
 
 impl Eyes {
     /// `compute` turns one eye's prescription into its card and summary (or an error).
-    pub fn new(query: &Query, compute: impl Fn(Eye, Rx) -> Result<EyeOutcome, Error> + Copy + Send + Sync + 'static) -> Eyes {
+    pub fn new(
+        query: &Query,
+        compute: impl Fn(Eye, Rx) -> Result<EyeOutcome, Error> + Copy + Send + Sync + 'static,
+    ) -> Eyes {
         let right = EyeEntry::new(Eye::Right, query.get("r"));
         let left = EyeEntry::new(Eye::Left, query.get("l"));
         let right_parsed = Memo::new(move |_| right.parsed());
@@ -36,7 +39,8 @@ impl Eyes {
         };
         let right_outcome = outcome(Eye::Right, right_parsed);
         let left_outcome = outcome(Eye::Left, left_parsed);
-        let card = move |o: Memo<Option<Result<EyeOutcome, Error>>>| shown_memo(move || o.get().map(|r| r.map(|(c, _)| c)));
+        let card =
+            move |o: Memo<Option<Result<EyeOutcome, Error>>>| shown_memo(move || o.get().map(|r| r.map(|(c, _)| c)));
         let summary = move |o: Memo<Option<Result<EyeOutcome, Error>>>| {
             Memo::new(move |_| o.get().and_then(|r| r.ok()).map(|(_, s)| s))
         };
@@ -59,14 +63,19 @@ impl Eyes {
 
     /// The link values of both eyes.
     pub fn add_to(&self, query: Query) -> Query {
-        query.with("r", &self.right.link_text()).with("l", &self.left.link_text())
+        query
+            .with("r", &self.right.link_text())
+            .with("l", &self.left.link_text())
     }
 
     /// A short polite announcement of the current results.
     pub fn announcement(&self) -> String {
         [(Eye::Right, self.right_card.get()), (Eye::Left, self.left_card.get())]
             .into_iter()
-            .filter_map(|(eye, s)| s.fresh().map(|c| format!("{} eye: {} {}", eye_words(eye).0, c.main_label, c.main_value)))
+            .filter_map(|(eye, s)| {
+                s.fresh()
+                    .map(|c| format!("{} eye: {} {}", eye_words(eye).0, c.main_label, c.main_value))
+            })
             .collect::<Vec<_>>()
             .join(". ")
     }
@@ -89,15 +98,27 @@ impl Eyes {
 
     /// What to save, or `None` when neither eye has a current result.
     pub fn save_request(&self, panel: Destination, query: Query, label: String) -> Option<SaveRequest> {
-        let eyes: Vec<EyeSummary> =
-            [self.right_summary.get_untracked(), self.left_summary.get_untracked()].into_iter().flatten().collect();
-        (!eyes.is_empty()).then(|| SaveRequest { panel, query, label, eyes })
+        let eyes: Vec<EyeSummary> = [self.right_summary.get_untracked(), self.left_summary.get_untracked()]
+            .into_iter()
+            .flatten()
+            .collect();
+        (!eyes.is_empty()).then(|| SaveRequest {
+            panel,
+            query,
+            label,
+            eyes,
+        })
     }
 }
 
 /// The summary line of one eye for the history.
 pub fn summary(eye: Eye, input: &Rx, result: String, order: Option<String>) -> EyeSummary {
-    EyeSummary { eye: eye_words(eye).1.into(), input: input.to_string(), result, order }
+    EyeSummary {
+        eye: eye_words(eye).1.into(),
+        input: input.to_string(),
+        result,
+        order,
+    }
 }
 
 /// Both eyes' result cards, the polite announcement of them, and the

@@ -35,9 +35,16 @@ pub fn equivalent_card(r: &EquivalentReport) -> Card {
             Row::new(
                 format!("Orderable spherical lens ({ladder})"),
                 r.ordered.to_string(),
-                format!("worth {} back at the original plane", fmt_power(r.ordered_back_at_origin)),
+                format!(
+                    "worth {} back at the original plane",
+                    fmt_power(r.ordered_back_at_origin)
+                ),
             ),
-            Row::new("Spherical equivalent as measured", fmt_power(r.spherical_equivalent_at_origin), format!("of {}", r.input)),
+            Row::new(
+                "Spherical equivalent as measured",
+                fmt_power(r.spherical_equivalent_at_origin),
+                format!("of {}", r.input),
+            ),
             Row::new("Full prescription at the target plane", r.at_target.to_string(), ""),
             Row::new(
                 "Left uncorrected by a spherical lens",
@@ -67,8 +74,19 @@ pub fn EquivalentPanel() -> impl IntoView {
     let eyes = Eyes::new(&q, move |eye, rx| -> Result<EyeOutcome, lensplane_core::Error> {
         let (from, to) = planes.both()?;
         let substitute = settings.get()?;
-        let r = equivalent_report(&EquivalentInput { rx, from, to, settings: OrderSettings::default(), substitute })?;
-        let line = summary(eye, &rx, format!("SE {}", fmt_power(r.spherical_equivalent)), Some(r.ordered.to_string()));
+        let r = equivalent_report(&EquivalentInput {
+            rx,
+            from,
+            to,
+            settings: OrderSettings::default(),
+            substitute,
+        })?;
+        let line = summary(
+            eye,
+            &rx,
+            format!("SE {}", fmt_power(r.spherical_equivalent)),
+            Some(r.ordered.to_string()),
+        );
         Ok((equivalent_card(&r), line))
     });
 
@@ -106,7 +124,8 @@ pub fn EquivalentPanel() -> impl IntoView {
         };
         eyes.text(&heading)
     });
-    let request = Callback::new(move |label: String| eyes.save_request(Destination::Equivalent, current.get_untracked(), label));
+    let request =
+        Callback::new(move |label: String| eyes.save_request(Destination::Equivalent, current.get_untracked(), label));
     let noop = Callback::new(|_| ());
 
     view! {

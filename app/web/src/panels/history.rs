@@ -8,7 +8,9 @@
 //! is written with plain DOM calls, all text as text nodes, never markup.
 //! One delegated click handler serves every Delete button.
 
-use crate::history::export::{clock, day_words, entries_words, iso_date, local, to_csv, to_json, unreadable_json, TOO_LARGE};
+use crate::history::export::{
+    clock, day_words, entries_words, iso_date, local, to_csv, to_json, unreadable_json, TOO_LARGE,
+};
 use crate::history::schema::{panel_name, panel_of, panel_words, Entry};
 use crate::history::store::{Mode, IMPORT_MAX};
 use crate::history::{download, History};
@@ -51,7 +53,13 @@ pub fn HistoryBanner() -> impl IntoView {
     // Opened after the first screen is drawn, so a large history never delays it.
     let ready = RwSignal::new(false);
     set_timeout(move || ready.set(true), std::time::Duration::ZERO);
-    let text = Memo::new(move |_| if ready.get() { storage_notes(history) } else { String::new() });
+    let text = Memo::new(move |_| {
+        if ready.get() {
+            storage_notes(history)
+        } else {
+            String::new()
+        }
+    });
     let hidden = move || text.with(String::is_empty) || location.pathname.get().ends_with("/history");
     view! {
         <div class="storage-banner" role="status" hidden=hidden>
@@ -145,7 +153,12 @@ pub fn HistoryPanel() -> impl IntoView {
     let base = base();
     let q = initial_query();
     let text = RwSignal::new(q.get("q").unwrap_or_default().to_string());
-    let panel = RwSignal::new(q.get("panel").filter(|p| panel_of(p).is_some()).unwrap_or_default().to_string());
+    let panel = RwSignal::new(
+        q.get("panel")
+            .filter(|p| panel_of(p).is_some())
+            .unwrap_or_default()
+            .to_string(),
+    );
     let shown = RwSignal::new(PAGE);
     let status = RwSignal::new(String::new());
     let undo = RwSignal::new(None::<Entry>);
@@ -170,7 +183,9 @@ pub fn HistoryPanel() -> impl IntoView {
     // arriving while the history opens do not change the newest page).
     Effect::new(move |before: Option<Vec<String>>| {
         let limit = shown.get();
-        let Some(container) = list_ref.get() else { return before.unwrap_or_default() };
+        let Some(container) = list_ref.get() else {
+            return before.unwrap_or_default();
+        };
         results.with(|ids| {
             history.with(|s| {
                 let page = &ids[..ids.len().min(limit)];
@@ -184,8 +199,13 @@ pub fn HistoryPanel() -> impl IntoView {
     });
 
     let on_list_click = move |ev: leptos::ev::MouseEvent| {
-        let button = ev.target().and_then(|t| t.dyn_into::<web_sys::Element>().ok()).and_then(|t| t.closest("button[data-id]").ok().flatten());
-        let Some(id) = button.and_then(|b| b.get_attribute("data-id")) else { return };
+        let button = ev
+            .target()
+            .and_then(|t| t.dyn_into::<web_sys::Element>().ok())
+            .and_then(|t| t.closest("button[data-id]").ok().flatten());
+        let Some(id) = button.and_then(|b| b.get_attribute("data-id")) else {
+            return;
+        };
         match history.delete(&id) {
             Ok(entry) => {
                 undo.set(Some(entry));
@@ -230,7 +250,11 @@ pub fn HistoryPanel() -> impl IntoView {
     let notes = Memo::new(move |_| storage_notes(history));
     let has_aside = move || history.with(|s| !s.aside().is_empty());
     let export_aside = move |_| {
-        download("lensplane-unreadable-history.json", "application/json", &history.with(|s| unreadable_json(s.aside())));
+        download(
+            "lensplane-unreadable-history.json",
+            "application/json",
+            &history.with(|s| unreadable_json(s.aside())),
+        );
         exported_aside.set(true);
     };
     let discard_aside = move |_| {
@@ -240,25 +264,46 @@ pub fn HistoryPanel() -> impl IntoView {
     let export = move |csv: bool| {
         let stamp = iso_date(local(chrono::Utc::now().timestamp_millis(), &Local));
         history.finish_reading();
-        let (text, mime) =
-            history.with(|s| if csv { (to_csv(s.entries(), &Local), "text/csv;charset=utf-8") } else { (to_json(s.entries()), "application/json") });
-        download(&format!("lensplane-history-{stamp}.{}", if csv { "csv" } else { "json" }), mime, &text);
+        let (text, mime) = history.with(|s| {
+            if csv {
+                (to_csv(s.entries(), &Local), "text/csv;charset=utf-8")
+            } else {
+                (to_json(s.entries()), "application/json")
+            }
+        });
+        download(
+            &format!("lensplane-history-{stamp}.{}", if csv { "csv" } else { "json" }),
+            mime,
+            &text,
+        );
     };
     let import = move |ev: leptos::ev::Event| {
         let input: web_sys::HtmlInputElement = event_target(&ev);
-        let Some(file) = input.files().and_then(|f| f.get(0)) else { return };
+        let Some(file) = input.files().and_then(|f| f.get(0)) else {
+            return;
+        };
         input.set_value("");
         if file.size() > IMPORT_MAX as f64 {
             status.set(TOO_LARGE.into());
             return;
         }
         leptos::task::spawn_local(async move {
-            let text = wasm_bindgen_futures::JsFuture::from(file.text()).await.ok().and_then(|t| t.as_string());
+            let text = wasm_bindgen_futures::JsFuture::from(file.text())
+                .await
+                .ok()
+                .and_then(|t| t.as_string());
             status.set(match text.map(|t| history.import(&t)) {
                 None => "The file could not be read. Nothing was changed.".into(),
-                Some(Ok(r)) if r.added == 0 => format!("Nothing new to import: all {} already in the history.", entries_words(r.duplicates)),
+                Some(Ok(r)) if r.added == 0 => format!(
+                    "Nothing new to import: all {} already in the history.",
+                    entries_words(r.duplicates)
+                ),
                 Some(Ok(r)) if r.duplicates == 0 => format!("Imported {}.", entries_words(r.added)),
-                Some(Ok(r)) => format!("Imported {}; {} already in the history skipped.", entries_words(r.added), entries_words(r.duplicates)),
+                Some(Ok(r)) => format!(
+                    "Imported {}; {} already in the history skipped.",
+                    entries_words(r.added),
+                    entries_words(r.duplicates)
+                ),
                 Some(Err(p)) => p,
             });
         });

@@ -50,7 +50,13 @@ fn messages(notices: Option<Result<Vec<Notice>, Error>>) -> Vec<Message> {
 impl NearFields {
     fn new(q: &Query) -> NearFields {
         let s = || RwSignal::new(String::new());
-        let fields = NearFields { add: s(), reading: s(), inches: RwSignal::new(false), from_eye: RwSignal::new(false), age: s() };
+        let fields = NearFields {
+            add: s(),
+            reading: s(),
+            inches: RwSignal::new(false),
+            from_eye: RwSignal::new(false),
+            age: s(),
+        };
         fields.load(q);
         fields
     }
@@ -59,9 +65,11 @@ impl NearFields {
     fn load(&self, q: &Query) {
         let inches = q.get("unit").is_some_and(|u| u.trim().eq_ignore_ascii_case("in"));
         self.inches.set(inches);
-        self.from_eye.set(q.get("measured").is_some_and(|m| m.trim().eq_ignore_ascii_case("eye")));
+        self.from_eye
+            .set(q.get("measured").is_some_and(|m| m.trim().eq_ignore_ascii_case("eye")));
         self.add.set(q.get("add").unwrap_or("").to_string());
-        self.reading.set(q.get("reading").unwrap_or(if inches { "16" } else { "40" }).to_string());
+        self.reading
+            .set(q.get("reading").unwrap_or(if inches { "16" } else { "40" }).to_string());
         self.age.set(q.get("age").unwrap_or("").to_string());
     }
 
@@ -78,7 +86,11 @@ impl NearFields {
     }
 
     fn reading_parsed(&self) -> Option<Result<Parsed<ReadingDistance>, Error>> {
-        Some(if self.inches.get() { parse_reading_inches(&self.reading.get()) } else { parse_reading_distance(&self.reading.get()) })
+        Some(if self.inches.get() {
+            parse_reading_inches(&self.reading.get())
+        } else {
+            parse_reading_distance(&self.reading.get())
+        })
     }
 
     fn age_parsed(&self) -> Option<Result<Parsed<Age>, Error>> {
@@ -87,11 +99,18 @@ impl NearFields {
 
     /// All of them, or the first error. An empty add is no add; an empty age is no age.
     fn values(&self) -> Result<NearValues, Error> {
-        let reading = self.reading_parsed().unwrap_or_else(|| parse_reading_distance(""))?.value;
+        let reading = self
+            .reading_parsed()
+            .unwrap_or_else(|| parse_reading_distance(""))?
+            .value;
         Ok(NearValues {
             add: self.add_parsed().transpose()?.map_or(Add::NONE, |p| p.value),
             reading,
-            measured: if self.from_eye.get() { Measured::FromEye } else { Measured::FromLens },
+            measured: if self.from_eye.get() {
+                Measured::FromEye
+            } else {
+                Measured::FromLens
+            },
             age: self.age_parsed().transpose()?.map(|p| p.value),
         })
     }
@@ -142,15 +161,26 @@ fn tentative_row(label: &str, t: &TentativeAdd, entered: f64) -> Row {
 
 /// Warnings shown once for the panel (in the cautions), not in every card.
 fn panel_wide(kind: WarningKind) -> bool {
-    matches!(kind, WarningKind::MultifocalLabels | WarningKind::TrialAtDistance | WarningKind::PopulationEstimate)
+    matches!(
+        kind,
+        WarningKind::MultifocalLabels | WarningKind::TrialAtDistance | WarningKind::PopulationEstimate
+    )
 }
 
 /// The near result of one eye as a card.
 pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
     let target = plane_words(input.target);
-    let in_target = if input.target.is_cornea() { "in contact lenses".to_string() } else { format!("with the lens at {target}") };
+    let in_target = if input.target.is_cornea() {
+        "in contact lenses".to_string()
+    } else {
+        format!("with the lens at {target}")
+    };
     let e = &r.equivalent;
-    let from = if input.measured == Measured::FromEye { "the eye" } else { "the spectacle plane" };
+    let from = if input.measured == Measured::FromEye {
+        "the eye"
+    } else {
+        "the spectacle plane"
+    };
     let add = fmt_power(r.add);
     // No add entered (or plano): what the reading distance asks, and tentative adds with an age.
     let no_add = input.add == Add::NONE;
@@ -166,14 +196,29 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
         Row::new(
             format!("Demand at {}", reading_words(input.reading, inches)),
             fmt_dioptres(r.demand),
-            format!("measured from {from}; spectacle accommodation (at the lens plane) {}", fmt_dioptres(r.spectacle_accommodation)),
+            format!(
+                "measured from {from}; spectacle accommodation (at the lens plane) {}",
+                fmt_dioptres(r.spectacle_accommodation)
+            ),
         ),
-        Row::new("Accommodation through the spectacles, no add", fmt_dioptres(e.accommodation_spectacles), "ocular accommodation, at the corneal vertex"),
+        Row::new(
+            "Accommodation through the spectacles, no add",
+            fmt_dioptres(e.accommodation_spectacles),
+            "ocular accommodation, at the corneal vertex",
+        ),
     ]);
     if !no_add {
-        rows.push(Row::new(format!("Accommodation through the spectacles with the add {add}"), fmt_dioptres(e.accommodation_spectacles_with_add), ""));
+        rows.push(Row::new(
+            format!("Accommodation through the spectacles with the add {add}"),
+            fmt_dioptres(e.accommodation_spectacles_with_add),
+            "",
+        ));
     }
-    rows.push(Row::new(format!("Accommodation {in_target}, no add"), fmt_dioptres(e.accommodation_target), ""));
+    rows.push(Row::new(
+        format!("Accommodation {in_target}, no add"),
+        fmt_dioptres(e.accommodation_target),
+        "",
+    ));
     if !no_add {
         add_rows(&mut rows, r, &add, &target);
     }
@@ -190,23 +235,49 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
         let amp = a.amplitude;
         rows.push(Row::new(
             format!("Amplitude at age {} (Hofstetter)", a.age.years()),
-            format!("{} / {} / {} D", fmt_number(amp.minimum), fmt_number(amp.average), fmt_number(amp.maximum)),
+            format!(
+                "{} / {} / {} D",
+                fmt_number(amp.minimum),
+                fmt_number(amp.average),
+                fmt_number(amp.maximum)
+            ),
             "minimum / average / maximum: a population estimate",
         ));
-        rows.push(tentative_row("Tentative add, minimum amplitude", &a.tentative_from_minimum, r.add));
-        rows.push(tentative_row("Tentative add, average amplitude", &a.tentative_from_average, r.add));
+        rows.push(tentative_row(
+            "Tentative add, minimum amplitude",
+            &a.tentative_from_minimum,
+            r.add,
+        ));
+        rows.push(tentative_row(
+            "Tentative add, average amplitude",
+            &a.tentative_from_average,
+            r.add,
+        ));
     }
     let (main_label, main_value, with) = if no_add {
-        (format!("Accommodation {in_target}"), fmt_dioptres(e.accommodation_target), "no add".to_string())
+        (
+            format!("Accommodation {in_target}"),
+            fmt_dioptres(e.accommodation_target),
+            "no add".to_string(),
+        )
     } else {
-        (format!("Equivalent add at {target}"), fmt_power(r.add_at_target), format!("add {add}"))
+        (
+            format!("Equivalent add at {target}"),
+            fmt_power(r.add_at_target),
+            format!("add {add}"),
+        )
     };
     Card {
         main_label,
         main_value,
         reason: format!("{} with {with}: {}.", r.input, r.summary),
         rows,
-        warnings: r.warnings.iter().filter(|w| !panel_wide(w.kind)).map(|w| w.message.clone()).collect(),
+        warnings: r
+            .warnings
+            .iter()
+            .filter(|w| !panel_wide(w.kind))
+            .map(|w| w.message.clone())
+            .collect(),
         cross: None,
     }
 }
@@ -241,7 +312,13 @@ fn add_rows(rows: &mut Vec<Row>, r: &NearReport, add: &str, target: &str) {
 
 /// Two radio buttons for a yes/no choice: `first` when `signal` is false,
 /// `second` when it is true.
-fn choice_pair(group: &'static str, legend: &'static str, first: &'static str, second: &'static str, signal: RwSignal<bool>) -> impl IntoView {
+fn choice_pair(
+    group: &'static str,
+    legend: &'static str,
+    first: &'static str,
+    second: &'static str,
+    signal: RwSignal<bool>,
+) -> impl IntoView {
     let radio = move |value: bool, text: &'static str| {
         view! {
             <label class="choice">
@@ -281,16 +358,35 @@ pub fn NearPanel() -> impl IntoView {
         let card = near_card(&input, &report, near.inches.get());
         let (result, order) = if v.add == Add::NONE {
             let accommodation = fmt_dioptres(report.equivalent.accommodation_target);
-            (format!("no add; accommodation {accommodation} at {}", plane_words(target)), report.distance_at_target_ordered.to_string())
+            (
+                format!("no add; accommodation {accommodation} at {}", plane_words(target)),
+                report.distance_at_target_ordered.to_string(),
+            )
         } else {
-            let result = format!("add {} at {} (near {})", fmt_power(report.add_at_target), plane_words(target), report.near_at_target);
-            (result, format!("{} add {}", report.distance_at_target_ordered, fmt_power(report.add_at_target_rounded)))
+            let result = format!(
+                "add {} at {} (near {})",
+                fmt_power(report.add_at_target),
+                plane_words(target),
+                report.near_at_target
+            );
+            (
+                result,
+                format!(
+                    "{} add {}",
+                    report.distance_at_target_ordered,
+                    fmt_power(report.add_at_target_rounded)
+                ),
+            )
         };
         Ok((card, summary(eye, &rx, result, Some(order))))
     });
 
     let current = Memo::new(move |_| {
-        near.add_to(eyes.add_to(Query::default()).with("from", &planes.link_from()).with("to", &planes.link_to()))
+        near.add_to(
+            eyes.add_to(Query::default())
+                .with("from", &planes.link_from())
+                .with("to", &planes.link_to()),
+        )
     });
     use_link_sync(Destination::Near, current, move |q: &Query| {
         eyes.load(q);
@@ -298,8 +394,14 @@ pub fn NearPanel() -> impl IntoView {
         near.load(q);
     });
 
-    let text = Signal::derive(move || eyes.text(&format!("Lensplane near vision: equivalent add {}", planes.target_words())));
-    let request = Callback::new(move |label: String| eyes.save_request(Destination::Near, current.get_untracked(), label));
+    let text = Signal::derive(move || {
+        eyes.text(&format!(
+            "Lensplane near vision: equivalent add {}",
+            planes.target_words()
+        ))
+    });
+    let request =
+        Callback::new(move |label: String| eyes.save_request(Destination::Near, current.get_untracked(), label));
     let noop = Callback::new(|_| ());
     let add_msgs = Signal::derive(move || messages(near.add_parsed().map(|r| r.map(|p| p.notices))));
     let reading_msgs = Signal::derive(move || messages(near.reading_parsed().map(|r| r.map(|p| p.notices))));
@@ -362,19 +464,37 @@ mod tests {
     }
 
     fn value<'a>(card: &'a Card, label: &str) -> &'a str {
-        &card.rows.iter().find(|r| r.label == label).unwrap_or_else(|| panic!("no row {label}: {:?}", card.rows)).value
+        &card
+            .rows
+            .iter()
+            .find(|r| r.label == label)
+            .unwrap_or_else(|| panic!("no row {label}: {:?}", card.rows))
+            .value
     }
 
     #[test]
     fn without_an_add_the_card_leads_with_accommodation_and_leaves_out_the_add_rows() {
         // N1 [textbook] of shared/optics-notes.md: −6.00 @ 12 mm, 40 cm from the lens: 2.4272 D in contact lenses.
         let c = card(Rx::sphere_only(-6.0).unwrap(), 0.0, Some(50));
-        assert_eq!((c.main_label.as_str(), c.main_value.as_str()), ("Accommodation in contact lenses", "2.43 D"));
+        assert_eq!(
+            (c.main_label.as_str(), c.main_value.as_str()),
+            ("Accommodation in contact lenses", "2.43 D")
+        );
         assert!(c.reason.starts_with("-6.00 DS with no add: "), "{}", c.reason);
-        for gone in ["Orderable add", "Relief the spectacle add gives at the eye", "Near prescription, orderable"] {
-            assert!(c.rows.iter().all(|r| r.label != gone), "{gone} should not be shown without an add");
+        for gone in [
+            "Orderable add",
+            "Relief the spectacle add gives at the eye",
+            "Near prescription, orderable",
+        ] {
+            assert!(
+                c.rows.iter().all(|r| r.label != gone),
+                "{gone} should not be shown without an add"
+            );
         }
-        assert!(c.rows.iter().any(|r| r.label == "Tentative add, average amplitude"), "an age still gives tentative adds");
+        assert!(
+            c.rows.iter().any(|r| r.label == "Tentative add, average amplitude"),
+            "an age still gives tentative adds"
+        );
         let with = card(Rx::sphere_only(-6.0).unwrap(), 2.5, None);
         assert_eq!(with.main_label, "Equivalent add at the cornea (contact lens)");
         assert!(with.rows.iter().any(|r| r.label == "Orderable add"));
@@ -392,7 +512,12 @@ mod tests {
         assert_eq!(value(&c, "Accommodation in contact lenses, no add"), "2.43 D");
         assert_eq!(value(&c, "Relief the spectacle add gives at the eye"), "2.12 D");
         assert_eq!(value(&c, "Orderable add"), "+2.50");
-        assert!(c.reason.starts_with("-6.00 DS with add +2.50: a myope in contact lenses needs more accommodation"), "{}", c.reason);
+        assert!(
+            c.reason
+                .starts_with("-6.00 DS with add +2.50: a myope in contact lenses needs more accommodation"),
+            "{}",
+            c.reason
+        );
     }
 
     #[test]
@@ -408,35 +533,66 @@ mod tests {
         // H1 [published] age 50: 2.50 / 3.50 / 5.00; A1 [textbook]: half reserve 1.25, one-third 0.8333 → 0.75.
         let c = card(Rx::sphere_only(0.0).unwrap(), 2.0, Some(50));
         assert_eq!(value(&c, "Amplitude at age 50 (Hofstetter)"), "2.50 / 3.50 / 5.00 D");
-        let t = c.rows.iter().find(|r| r.label == "Tentative add, minimum amplitude").unwrap();
+        let t = c
+            .rows
+            .iter()
+            .find(|r| r.label == "Tentative add, minimum amplitude")
+            .unwrap();
         assert_eq!(t.value, "+1.25");
-        assert!(t.detail.contains("one-third in reserve +0.83 (orderable +0.75)"), "{}", t.detail);
-        assert!(card(Rx::sphere_only(0.0).unwrap(), 2.0, None).rows.iter().all(|r| !r.label.starts_with("Amplitude")));
+        assert!(
+            t.detail.contains("one-third in reserve +0.83 (orderable +0.75)"),
+            "{}",
+            t.detail
+        );
+        assert!(card(Rx::sphere_only(0.0).unwrap(), 2.0, None)
+            .rows
+            .iter()
+            .all(|r| !r.label.starts_with("Amplitude")));
     }
 
     #[test]
     fn meridian_rows_only_when_there_is_a_cylinder() {
         let sph = card(Rx::sphere_only(-6.0).unwrap(), 2.5, None);
-        assert!(!sph.rows.iter().any(|r| r.label.starts_with("Meridian") || r.label == "Spherical equivalent"));
+        assert!(!sph
+            .rows
+            .iter()
+            .any(|r| r.label.starts_with("Meridian") || r.label == "Spherical equivalent"));
         let cyl = card(Rx::new(-6.0, -2.0, 180).unwrap(), 2.5, None);
         assert_eq!(value(&cyl, "Spherical equivalent"), "-7.00");
         // The −6.00 meridian carries N1's figures [textbook].
         let m = cyl.rows.iter().find(|r| r.label == "Meridian 180°").unwrap();
         assert_eq!(m.value, "-6.00");
-        assert!(m.detail.starts_with("accommodation through the spectacles 2.12 D without the add"), "{}", m.detail);
+        assert!(
+            m.detail
+                .starts_with("accommodation through the spectacles 2.12 D without the add"),
+            "{}",
+            m.detail
+        );
         assert_eq!(value(&cyl, "Meridian 90°"), "-8.00");
     }
 
     #[test]
     fn panel_wide_cautions_are_not_repeated_in_every_card() {
         let c = card(Rx::sphere_only(-6.0).unwrap(), 2.5, Some(50));
-        assert!(c.warnings.iter().all(|w| !w.contains("not optical adds") && !w.contains("population estimate")), "{:?}", c.warnings);
+        assert!(
+            c.warnings
+                .iter()
+                .all(|w| !w.contains("not optical adds") && !w.contains("population estimate")),
+            "{:?}",
+            c.warnings
+        );
     }
 
     #[test]
     fn reading_in_inches_is_described_in_both_units() {
         // [definition] 1 in = 2.54 cm.
-        assert_eq!(reading_words(ReadingDistance::from_inches(16.0).unwrap(), true), "16 in (40.64 cm)");
-        assert_eq!(reading_words(ReadingDistance::from_cm(33.33).unwrap(), false), "33.33 cm");
+        assert_eq!(
+            reading_words(ReadingDistance::from_inches(16.0).unwrap(), true),
+            "16 in (40.64 cm)"
+        );
+        assert_eq!(
+            reading_words(ReadingDistance::from_cm(33.33).unwrap(), false),
+            "33.33 cm"
+        );
     }
 }

@@ -20,24 +20,42 @@ fn ladder_words(kind: LadderKind) -> &'static str {
 
 /// "the cornea (contact lens)" or "14 mm".
 pub fn plane_words(d: VertexDistance) -> String {
-    if d.is_cornea() { "the cornea (contact lens)".into() } else { format!("{} mm", fmt_length(d.mm())) }
+    if d.is_cornea() {
+        "the cornea (contact lens)".into()
+    } else {
+        format!("{} mm", fmt_length(d.mm()))
+    }
 }
 
 /// "180: +0.06 D, 90: -0.07 D".
 pub fn per_meridian(cross: &PowerCross) -> String {
-    cross.both().iter().map(|m| format!("{}: {}", m.axis, fmt_dioptres(m.power))).collect::<Vec<_>>().join(", ")
+    cross
+        .both()
+        .iter()
+        .map(|m| format!("{}: {}", m.axis, fmt_dioptres(m.power)))
+        .collect::<Vec<_>>()
+        .join(", ")
 }
 
 /// The vertex result of one eye as a card, in minus- or plus-cylinder form.
 pub fn vertex_card(r: &VertexReport, plus: bool) -> Card {
-    let form = |minus: lensplane_core::Rx, plus_form: lensplane_core::Rx| if plus { plus_form } else { minus }.to_string();
-    let input = if plus { r.input.to_plus_cyl() } else { r.input.to_minus_cyl() };
+    let form =
+        |minus: lensplane_core::Rx, plus_form: lensplane_core::Rx| if plus { plus_form } else { minus }.to_string();
+    let input = if plus {
+        r.input.to_plus_cyl()
+    } else {
+        r.input.to_minus_cyl()
+    };
     let from = plane_words(r.from);
     let mut rows = vec![
         Row::new(
             format!("Orderable ({})", ladder_words(r.ladder)),
             form(r.ordered_minus_cyl, r.ordered_plus_cyl),
-            format!("worth {} back at {from}; residual per meridian {}", r.ordered.back_at_origin, per_meridian(&r.ordered.residual)),
+            format!(
+                "worth {} back at {from}; residual per meridian {}",
+                r.ordered.back_at_origin,
+                per_meridian(&r.ordered.residual)
+            ),
         ),
         Row::new("Change per meridian", "", per_meridian(&r.change)),
     ];
@@ -71,9 +89,19 @@ pub fn VertexPanel() -> impl IntoView {
     let plus = RwSignal::new(q.get("form") == Some("plus"));
     let eyes = Eyes::new(&q, move |eye, rx| -> Result<EyeOutcome, lensplane_core::Error> {
         let (from, to) = planes.both()?;
-        let report = vertex_report(&VertexInput { rx, from, to, settings: OrderSettings::default() })?;
+        let report = vertex_report(&VertexInput {
+            rx,
+            from,
+            to,
+            settings: OrderSettings::default(),
+        })?;
         let card = vertex_card(&report, plus.get());
-        let line = summary(eye, &rx, report.exact.to_string(), Some(report.ordered.ordered.to_string()));
+        let line = summary(
+            eye,
+            &rx,
+            report.exact.to_string(),
+            Some(report.ordered.ordered.to_string()),
+        );
         Ok((card, line))
     });
 
@@ -89,8 +117,10 @@ pub fn VertexPanel() -> impl IntoView {
         plus.set(q.get("form") == Some("plus"));
     });
 
-    let text = Signal::derive(move || eyes.text(&format!("Lensplane vertex compensation to {}", planes.target_words())));
-    let request = Callback::new(move |label: String| eyes.save_request(Destination::Vertex, current.get_untracked(), label));
+    let text =
+        Signal::derive(move || eyes.text(&format!("Lensplane vertex compensation to {}", planes.target_words())));
+    let request =
+        Callback::new(move |label: String| eyes.save_request(Destination::Vertex, current.get_untracked(), label));
     let noop = Callback::new(|_| ());
 
     view! {
@@ -122,8 +152,13 @@ mod tests {
     use lensplane_core::Rx;
 
     fn report(rx: Rx) -> VertexReport {
-        vertex_report(&VertexInput { rx, from: VertexDistance::SPECTACLES, to: VertexDistance::CORNEA, settings: OrderSettings::default() })
-            .unwrap()
+        vertex_report(&VertexInput {
+            rx,
+            from: VertexDistance::SPECTACLES,
+            to: VertexDistance::CORNEA,
+            settings: OrderSettings::default(),
+        })
+        .unwrap()
     }
 
     #[test]
@@ -138,7 +173,10 @@ mod tests {
     #[test]
     fn card_offers_the_toric_choice_only_when_there_is_one() {
         let toric = report(Rx::new(-8.0, -2.0, 180).unwrap());
-        assert!(vertex_card(&toric, false).rows.iter().any(|r| r.label == "Toric contact lens"));
+        assert!(vertex_card(&toric, false)
+            .rows
+            .iter()
+            .any(|r| r.label == "Toric contact lens"));
         // V1 [textbook]: −4.00 DS → −3.8168; spherical, so no toric row.
         let sph = report(Rx::sphere_only(-4.0).unwrap());
         let card = vertex_card(&sph, false);

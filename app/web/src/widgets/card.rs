@@ -17,7 +17,11 @@ pub struct Row {
 
 impl Row {
     pub fn new(label: impl Into<String>, value: impl Into<String>, detail: impl Into<String>) -> Row {
-        Row { label: label.into(), value: value.into(), detail: detail.into() }
+        Row {
+            label: label.into(),
+            value: value.into(),
+            detail: detail.into(),
+        }
     }
 }
 

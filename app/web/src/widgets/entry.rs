@@ -37,11 +37,20 @@ fn compose(sphere: &str, cylinder: &str, axis: &str) -> String {
     if c.is_empty() && a.is_empty() {
         return s.to_string();
     }
-    let a = if a.starts_with(|ch: char| ch.is_ascii_digit()) { format!("x{a}") } else { a.to_string() };
+    let a = if a.starts_with(|ch: char| ch.is_ascii_digit()) {
+        format!("x{a}")
+    } else {
+        a.to_string()
+    };
     // A missing sphere stays visibly missing; the cylinder must never be
     // read as the sphere.
     let s = if s.is_empty() { "?" } else { s };
-    [s, c, a.as_str()].iter().filter(|t| !t.is_empty()).copied().collect::<Vec<_>>().join(" ")
+    [s, c, a.as_str()]
+        .iter()
+        .filter(|t| !t.is_empty())
+        .copied()
+        .collect::<Vec<_>>()
+        .join(" ")
 }
 
 impl EyeEntry {
@@ -95,7 +104,11 @@ impl EyeEntry {
         // (that text is kept, not overwritten).
         let line = self.line.get_untracked();
         if line.trim().is_empty() || parse_rx(&line).is_ok() {
-            self.line.set(compose(&self.sphere.get_untracked(), &self.cylinder.get_untracked(), &self.axis.get_untracked()));
+            self.line.set(compose(
+                &self.sphere.get_untracked(),
+                &self.cylinder.get_untracked(),
+                &self.axis.get_untracked(),
+            ));
         }
     }
 

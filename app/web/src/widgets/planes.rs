@@ -40,7 +40,10 @@ impl Planes {
 
     pub fn to_parsed(&self) -> Result<Parsed<VertexDistance>, Error> {
         if self.to_cornea.get() {
-            Ok(Parsed { value: VertexDistance::CORNEA, notices: vec![] })
+            Ok(Parsed {
+                value: VertexDistance::CORNEA,
+                notices: vec![],
+            })
         } else {
             parse_vertex_mm(&self.to_frame.get()).map_err(|e| e.for_field(Field::VertexTo))
         }
@@ -56,7 +59,11 @@ impl Planes {
     }
 
     pub fn link_to(&self) -> String {
-        if self.to_cornea.get() { "0".into() } else { self.to_frame.get().trim().to_string() }
+        if self.to_cornea.get() {
+            "0".into()
+        } else {
+            self.to_frame.get().trim().to_string()
+        }
     }
 
     /// Words for the target plane, e.g. "at the cornea (contact lens)" or "at 14 mm".
@@ -78,11 +85,7 @@ fn messages_of(result: Result<Vec<lensplane_core::Notice>, Error>) -> Vec<Messag
 
 /// The plane inputs of the vertex-type panels.
 #[component]
-pub fn PlaneInputs(
-    planes: Planes,
-    id_prefix: &'static str,
-    on_edit: Callback<()>,
-) -> impl IntoView {
+pub fn PlaneInputs(planes: Planes, id_prefix: &'static str, on_edit: Callback<()>) -> impl IntoView {
     let from_msgs = Signal::derive(move || messages_of(planes.from_parsed().map(|p| p.notices)));
     let to_msgs = Signal::derive(move || messages_of(planes.to_parsed().map(|p| p.notices)));
     let group = format!("{id_prefix}-target");

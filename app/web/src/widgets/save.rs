@@ -39,15 +39,25 @@ pub fn SaveBar(
         };
         leptos::task::spawn_local(async move {
             let ok = copy_to_clipboard(t).await;
-            status.set(if ok { "Copied as text.".into() } else { "The browser did not allow copying; select the result text instead.".into() });
+            status.set(if ok {
+                "Copied as text.".into()
+            } else {
+                "The browser did not allow copying; select the result text instead.".into()
+            });
         });
     };
     // An installed app has no address bar: the link to this calculation is copied from here.
     let copy_link = move |_| {
-        let Some(href) = web_sys::window().and_then(|w| w.location().href().ok()) else { return };
+        let Some(href) = web_sys::window().and_then(|w| w.location().href().ok()) else {
+            return;
+        };
         leptos::task::spawn_local(async move {
             let ok = copy_to_clipboard(href).await;
-            status.set(if ok { "Copied the link to this calculation.".into() } else { "The browser did not allow copying.".into() });
+            status.set(if ok {
+                "Copied the link to this calculation.".into()
+            } else {
+                "The browser did not allow copying.".into()
+            });
         });
     };
     let label_id = format!("{id_prefix}-label");

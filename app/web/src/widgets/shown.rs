@@ -50,9 +50,12 @@ where
 #[component]
 pub fn ShownNote<T: Clone + PartialEq + Send + Sync + 'static>(shown: Memo<Shown<T>>) -> impl IntoView {
     move || match shown.get() {
-        Shown::Stale(_, e) => Some(view! {
-            <p class="stale-note">"Not updated: " {e} ". The figures below are from the last complete entry."</p>
-        }.into_any()),
+        Shown::Stale(_, e) => Some(
+            view! {
+                <p class="stale-note">"Not updated: " {e} ". The figures below are from the last complete entry."</p>
+            }
+            .into_any(),
+        ),
         Shown::Failed(e) => Some(view! { <p class="stale-note">{e}</p> }.into_any()),
         _ => None,
     }

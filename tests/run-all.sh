@@ -21,6 +21,14 @@ echo "== native tests (core and web crates)"
 cargo test --workspace --exclude lensplane-tool --locked 2>&1 | tee "$LOG/cargo.txt"
 cargo_status=${PIPESTATUS[0]}
 
+# Formatting (rustfmt.toml), when the toolchain has rustfmt: it cannot be fetched from a registry.
+if cargo fmt --version >/dev/null 2>&1; then
+  echo "== formatting (cargo fmt --check)"
+  cargo fmt --all --check >/dev/null || { echo "formatting differs from rustfmt.toml: run cargo fmt --all"; cargo_status=1; }
+else
+  echo "== formatting not checked: this toolchain has no rustfmt"
+fi
+
 echo "== the build program (release: its tests reuse the build it needs anyway)"
 cargo build --release --locked -p lensplane-tool || exit 1
 cargo test --release --locked -p lensplane-tool 2>&1 | tee -a "$LOG/cargo.txt"

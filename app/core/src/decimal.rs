@@ -26,6 +26,21 @@ const POW10: [f64; 23] = [
 /// The most significant digits kept (19 always fit in a `u64`).
 const MAX_DIGITS: u32 = 19;
 
+/// Reads an optional sign at `bytes[*i]`, moving past it; true for minus.
+fn sign(bytes: &[u8], i: &mut usize) -> bool {
+    match bytes.get(*i) {
+        Some(b'-') => {
+            *i += 1;
+            true
+        }
+        Some(b'+') => {
+            *i += 1;
+            false
+        }
+        _ => false,
+    }
+}
+
 /// Reads a finite decimal number written as `str::parse::<f64>` accepts it:
 /// an optional sign, digits with an optional decimal point (at least one
 /// digit in all), and an optional exponent (`e` or `E`, optional sign,
@@ -47,17 +62,7 @@ const MAX_DIGITS: u32 = 19;
 pub fn read_decimal(text: &str) -> Option<f64> {
     let bytes = text.as_bytes();
     let mut i = 0;
-    let negative = match bytes.first() {
-        Some(b'-') => {
-            i += 1;
-            true
-        }
-        Some(b'+') => {
-            i += 1;
-            false
-        }
-        _ => false,
-    };
+    let negative = sign(bytes, &mut i);
     let mut m: u64 = 0;
     let mut kept = 0;
     // The power of ten to apply to `m`.
@@ -94,17 +99,7 @@ pub fn read_decimal(text: &str) -> Option<f64> {
             return None;
         }
         i += 1;
-        let exp_negative = match bytes.get(i) {
-            Some(b'-') => {
-                i += 1;
-                true
-            }
-            Some(b'+') => {
-                i += 1;
-                false
-            }
-            _ => false,
-        };
+        let exp_negative = sign(bytes, &mut i);
         let digits = &bytes[i..];
         if digits.is_empty() || !digits.iter().all(u8::is_ascii_digit) {
             return None;

@@ -218,6 +218,20 @@ test('storage full: a clear message, nothing stored is lost, the calculation sta
   await context.close();
 });
 
+test('a quota of nothing (as some private windows have): the first save is kept for the session, and the message says so', async () => {
+  const { context, page } = await fresh();
+  await context.addInitScript(() => {
+    Storage.prototype.setItem = function () { throw new DOMException('The quota has been exceeded.', 'QuotaExceededError'); };
+  });
+  await saveVertex(page, C1_INPUT, 'private window', 'Saved for this session only');
+  assert.equal(await page.getByText('storage is full').count(), 0);
+  await page.locator('.storage-banner:visible').getByText('session only').waitFor();
+  await page.getByRole('navigation', { name: 'Calculators' }).getByRole('link', { name: 'History' }).click();
+  await count(page).getByText('1 entry.').waitFor();
+  await page.locator('.storage-banner:visible').getByText('session only').waitFor();
+  await context.close();
+});
+
 test('storage unavailable: computes, keeps a session history in memory and says it will not persist', async () => {
   const { context, page } = await fresh();
   await context.addInitScript(() => {

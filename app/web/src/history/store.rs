@@ -541,9 +541,21 @@ impl<B: Backend> Store<B> {
         let pos = self.entries.partition_point(|e| (e.t, &e.id) <= (entry.t, &entry.id));
         let month = entry.month();
         self.entries.insert(pos, entry);
-        self.commit(vec![month]).inspect_err(|_| {
-            self.entries.remove(pos);
-        })
+        match self.commit(vec![month]) {
+            // Nothing of ours is stored and not even one entry fits: a quota of nothing, as some
+            // browsers give private windows. Storage is unusable, not full: keep this session's.
+            Err(p)
+                if p == FULL && self.entries.len() == 1 && self.manifest.chunks.is_empty() && self.aside.is_empty() =>
+            {
+                self.session_only(SESSION_ONLY);
+                Ok(())
+            }
+            Err(p) => {
+                self.entries.remove(pos);
+                Err(p)
+            }
+            Ok(()) => Ok(()),
+        }
     }
 
     /// Deletes an entry, returning it (for undo).
@@ -984,6 +996,26 @@ mod tests {
         assert_eq!(sliced.manifest, at_once.manifest);
         assert_eq!(sliced.backend().map, at_once.backend().map);
         assert!(!sliced.read_more(10), "nothing left to read");
+    }
+
+    #[test]
+    fn a_quota_of_nothing_gives_a_session_history_not_a_full_one() {
+        let mut s = Store::open(Memory {
+            quota: Some(0),
+            ..Memory::default()
+        });
+        s.add(entry("a", MAY, "")).unwrap();
+        assert_eq!(s.mode, Mode::SessionOnly(SESSION_ONLY.into()));
+        assert_eq!(s.notices, [SESSION_ONLY]);
+        s.add(entry("b", JUNE, "")).unwrap();
+        assert_eq!(ids(&s), ["a", "b"]);
+        assert!(s.backend().map.is_empty());
+        // With entries already stored, a full quota is a full quota.
+        let mut full = Store::open(Memory::default());
+        full.add(entry("a", MAY, "")).unwrap();
+        full.backend_mut().quota = Some(full.backend().used());
+        assert_eq!(full.add(entry("b", MAY + 1, "")), Err(FULL.to_string()));
+        assert_eq!(full.mode, Mode::Durable);
     }
 
     #[test]

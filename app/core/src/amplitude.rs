@@ -5,13 +5,12 @@
 //! (citation details from memory; formulas verified): minimum 15 − 0.25·age,
 //! average 18.5 − 0.30·age, maximum 25 − 0.40·age, clamped at 0.
 
-use serde::{Deserialize, Serialize};
 
 use crate::rounding::{round_to_step, TieRule};
 use crate::Age;
 
 /// Hofstetter's minimum, average and maximum amplitude for an age, D.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Amplitude {
     /// 15 − 0.25·age.
     pub minimum: f64,
@@ -54,7 +53,7 @@ pub fn amplitude_reliable(age: Age) -> bool {
 
 /// A tentative add: the demand less the part of the amplitude the patient
 /// can use comfortably.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct TentativeAdd {
     /// demand − amplitude/2 (half kept in reserve), clamped at 0.
     pub half_reserve: f64,

@@ -1,7 +1,6 @@
 //! Spherical equivalent at any plane, and whether a spherical lens is a
 //! reasonable substitute for a sphero-cylinder.
 
-use serde::{Deserialize, Serialize};
 
 use crate::error::{Error, ErrorKind, Field};
 use crate::format::fmt_number;
@@ -28,7 +27,7 @@ pub fn spherical_equivalent_at(rx: &Rx, from: VertexDistance, to: VertexDistance
 /// (from memory, no single source): cylinder ≤ 0.75 D, cylinder : sphere
 /// ≤ 1 : 4, and less tolerance (≤ 0.50 D) for oblique and against-the-rule
 /// cylinders. They are settings, not laws.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct SubstituteSettings {
     /// Largest with-the-rule cylinder for a spherical lens, dioptres.
     pub max_cylinder: f64,
@@ -73,7 +72,7 @@ impl SubstituteSettings {
 
 /// Orientation of a cylinder (minus-cylinder axis): with the rule 1–30 and
 /// 150–180, against the rule 60–120, oblique otherwise (common practice).
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum Orientation {
     /// Minus-cylinder axis within 30° of 180.
     WithTheRule,
@@ -117,7 +116,7 @@ impl Orientation {
 }
 
 /// How good a spherical substitute is.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum Verdict {
     /// Both thresholds met.
     Suitable,
@@ -128,7 +127,7 @@ pub enum Verdict {
 }
 
 /// The spherical-substitute assessment.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct SubstituteAssessment {
     /// The verdict.
     pub verdict: Verdict,

@@ -7,13 +7,12 @@
 
 use core::fmt;
 
-use serde::{Deserialize, Serialize};
 
 use crate::format::prose_power;
 
 /// Which input (or which part of a result) an [`Error`], [`crate::Notice`] or
 /// [`crate::Warning`] concerns, so the UI can show it beside that field.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum Field {
     /// A whole prescription typed or pasted as one string.
     Rx,

@@ -1,6 +1,5 @@
 //! The power cross: a prescription as two principal meridians.
 
-use serde::{Deserialize, Serialize};
 
 use crate::error::{Error, ErrorKind, Field};
 use crate::rx::{check_axis, clean, perpendicular};
@@ -8,7 +7,7 @@ use crate::Rx;
 
 /// One principal meridian: its power in dioptres and its direction in
 /// degrees (1–180, same notation as an axis).
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Meridian {
     /// Power acting in this meridian, dioptres.
     pub power: f64,
@@ -18,33 +17,10 @@ pub struct Meridian {
 
 /// Two principal meridians 90° apart (the "power cross" practitioners draw).
 /// `first` lies along the cylinder axis of the prescription it came from.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(try_from = "RawCross", into = "RawCross")]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct PowerCross {
     first: Meridian,
     second: Meridian,
-}
-
-#[derive(Serialize, Deserialize)]
-struct RawCross {
-    first: Meridian,
-    second: Meridian,
-}
-
-impl From<PowerCross> for RawCross {
-    fn from(c: PowerCross) -> RawCross {
-        RawCross {
-            first: c.first,
-            second: c.second,
-        }
-    }
-}
-
-impl TryFrom<RawCross> for PowerCross {
-    type Error = Error;
-    fn try_from(raw: RawCross) -> Result<PowerCross, Error> {
-        PowerCross::new(raw.first.power, raw.second.power, raw.first.axis)
-    }
 }
 
 impl PowerCross {

@@ -11,7 +11,6 @@
 //! Not the shortcut V(F + A) − V(F), which treats the near prescription as
 //! if the object were at infinity (wrong by up to ~0.6 D at ±6 D).
 
-use serde::{Deserialize, Serialize};
 
 use crate::error::Error;
 use crate::vertex::effective_power;
@@ -19,7 +18,7 @@ use crate::{Measured, ReadingDistance, VertexDistance};
 
 /// The geometry of a near task: where the object is, where the spectacles
 /// are, and where the new lens will be.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct NearGeometry {
     /// Vertex distance of the spectacles the add was found in.
     pub spectacle_vertex: VertexDistance,
@@ -90,7 +89,7 @@ impl NearGeometry {
 
 /// Near figures for one power (a principal meridian, or the spherical
 /// equivalent), dioptres.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct NearFigures {
     /// Meridian direction in degrees; `None` for the spherical-equivalent
     /// summary.

@@ -6,7 +6,6 @@
 //! missing sign, a missing axis, an axis outside 1–180 or a number that looks
 //! like it lost its decimal point is an error that asks, never a guess.
 
-use serde::{Deserialize, Serialize};
 
 use crate::error::{Error, ErrorKind, Field};
 use crate::format::{fmt_number, fmt_power};
@@ -20,7 +19,7 @@ use crate::{Add, Age, ReadingDistance, Rx, VertexDistance};
 
 /// A parsed value and what the parser wants the user to know about how it
 /// read the text (nothing here is an error).
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct Parsed<T> {
     /// The value read.
     pub value: T,
@@ -30,7 +29,7 @@ pub struct Parsed<T> {
 }
 
 /// Something the parser did that the user should see.
-#[derive(Clone, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq, Eq)]
 pub struct Notice {
     /// What kind of notice.
     pub kind: NoticeKind,
@@ -41,7 +40,7 @@ pub struct Notice {
 }
 
 /// The kinds of [`Notice`].
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum NoticeKind {
     /// A dash or other non-ASCII minus was read as a minus sign.
     MinusRead,

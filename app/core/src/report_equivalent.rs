@@ -1,6 +1,5 @@
 //! The spherical-equivalent panel's entry point.
 
-use serde::{Deserialize, Serialize};
 
 use crate::equivalent::{assess_substitute, SubstituteAssessment, SubstituteSettings};
 use crate::error::Error;
@@ -10,7 +9,7 @@ use crate::warnings::{rx_warnings, vertex_warnings, Warning};
 use crate::{compensate, compensate_power, PowerVector, Rx, VertexDistance};
 
 /// What the spherical-equivalent panel sends for one eye.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct EquivalentInput {
     /// The prescription at `from`.
     pub rx: Rx,
@@ -25,7 +24,7 @@ pub struct EquivalentInput {
 }
 
 /// Everything the spherical-equivalent panel shows for one eye.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct EquivalentReport {
     /// The prescription as entered.
     pub input: Rx,

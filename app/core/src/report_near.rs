@@ -1,6 +1,5 @@
 //! The near panel's entry point.
 
-use serde::{Deserialize, Serialize};
 
 use crate::amplitude::{amplitude_reliable, hofstetter, tentative_add, Amplitude, TentativeAdd};
 use crate::error::{Error, Field};
@@ -11,7 +10,7 @@ use crate::warnings::{rx_warnings, vertex_warnings, warn, Warning, WarningKind};
 use crate::{compensate, Add, Age, Measured, Meridian, PowerCross, ReadingDistance, Rx, VertexDistance};
 
 /// What the near panel sends for one eye.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct NearInput {
     /// The distance prescription, worn at `spectacle_vertex`.
     pub rx: Rx,
@@ -32,7 +31,7 @@ pub struct NearInput {
 }
 
 /// Amplitude by age and the tentative adds it suggests.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct AmplitudeReport {
     /// The age used.
     pub age: Age,
@@ -47,7 +46,7 @@ pub struct AmplitudeReport {
 }
 
 /// Everything the near panel shows for one eye.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct NearReport {
     /// The distance prescription as entered.
     pub input: Rx,

@@ -1,6 +1,5 @@
 //! The vertex panel's entry point: everything the UI shows for one eye.
 
-use serde::{Deserialize, Serialize};
 
 use crate::error::{Error, Field};
 use crate::format::fmt_power;
@@ -9,7 +8,7 @@ use crate::warnings::{rx_warnings, vertex_warnings, warn, Warning, WarningKind};
 use crate::{choose_toric, compensate_meridians, PowerCross, Rx, ToricChoice, VertexDistance};
 
 /// Which ladder the orderable values are on.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum LadderKind {
     /// Spectacle quarter steps (target is a vertex distance).
     Spectacle,
@@ -18,7 +17,7 @@ pub enum LadderKind {
 }
 
 /// What the vertex panel sends for one eye.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct VertexInput {
     /// The prescription at `from`.
     pub rx: Rx,
@@ -32,7 +31,7 @@ pub struct VertexInput {
 
 /// Everything the vertex panel shows for one eye. The UI formats these with
 /// `Display`/[`crate::fmt_power`] and does no arithmetic.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct VertexReport {
     /// The prescription as entered.
     pub input: Rx,

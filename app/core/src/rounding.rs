@@ -1,7 +1,6 @@
 //! Rounding to orderable powers: quarter steps with an explicit tie rule,
 //! and availability ladders (finer steps near zero, coarser beyond).
 
-use serde::{Deserialize, Serialize};
 
 use crate::error::{Error, ErrorKind, Field};
 use crate::{compensate_meridians, Meridian, PowerCross, PowerVector, Rx, ToricSettings, VertexDistance};
@@ -9,7 +8,7 @@ use crate::{compensate_meridians, Meridian, PowerCross, PowerVector, Rx, ToricSe
 /// How to round a value that lies exactly halfway between two steps.
 /// Language defaults (banker's rounding, half away from zero) would decide
 /// silently; here the choice is explicit.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Default, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Default)]
 pub enum TieRule {
     /// To the algebraically more plus value (avoids over-minusing; default,
     /// common practice).
@@ -78,7 +77,7 @@ pub fn round_to_step(x: f64, step: f64, tie: TieRule) -> f64 {
 /// Defaults, common practice (varies by maker): spectacle lenses in quarter
 /// steps throughout; soft contact lenses in 0.25 D steps to ±6.00 D and
 /// 0.50 D beyond.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Ladder {
     /// Step near zero, dioptres.
     pub fine_step: f64,
@@ -186,7 +185,7 @@ fn bad_setting(what: &'static str) -> Error {
 
 /// The usual stock range of a contact lens; powers outside it draw a
 /// warning (custom order). Common practice, roughly −12 to +8 D.
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct StockRange {
     /// Most minus stock power, dioptres.
     pub min: f64,
@@ -201,7 +200,7 @@ impl Default for StockRange {
 }
 
 /// How results are rounded to what can be ordered.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct OrderSettings {
     /// Tie rule for every rounding (default toward plus).
     pub tie: TieRule,
@@ -293,7 +292,7 @@ pub fn round_separately(rx: &Rx, ladder: &Ladder, tie: TieRule) -> Rx {
 }
 
 /// A rounded (orderable) lens and what it is worth.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct OrderedLens {
     /// The exact power at the target plane.
     pub exact: Rx,

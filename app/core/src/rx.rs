@@ -1,6 +1,5 @@
 //! The sphero-cylindrical prescription and its two cylinder forms.
 
-use serde::{Deserialize, Serialize};
 
 use crate::error::{Error, ErrorKind, Field};
 use crate::format::prose_power;
@@ -24,43 +23,11 @@ use crate::{Meridian, PowerCross, PowerVector};
 /// assert_eq!((rx.sphere(), rx.cylinder(), rx.axis()), (-8.0, -2.0, 180));
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(try_from = "RawRx", into = "RawRx")]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct Rx {
     sphere: f64,
     cylinder: f64,
     axis: u16,
-}
-
-#[derive(Serialize, Deserialize)]
-struct RawRx {
-    sphere: f64,
-    cylinder: f64,
-    axis: u16,
-}
-
-impl From<Rx> for RawRx {
-    fn from(rx: Rx) -> RawRx {
-        RawRx {
-            sphere: rx.sphere,
-            cylinder: rx.cylinder,
-            axis: rx.axis,
-        }
-    }
-}
-
-impl TryFrom<RawRx> for Rx {
-    type Error = Error;
-    fn try_from(raw: RawRx) -> Result<Rx, Error> {
-        if !raw.sphere.is_finite() {
-            return Err(out_of_range(Field::Sphere, raw.sphere));
-        }
-        if !raw.cylinder.is_finite() {
-            return Err(out_of_range(Field::Cylinder, raw.cylinder));
-        }
-        check_axis(raw.axis)?;
-        Ok(Rx::raw(raw.sphere, raw.cylinder, raw.axis))
-    }
 }
 
 fn out_of_range(field: Field, value: f64) -> Error {

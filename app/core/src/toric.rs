@@ -3,7 +3,6 @@
 //! uncorrected (a power-vector difference, so a rotated axis counts as the
 //! obliquely crossed cylinder it is).
 
-use serde::{Deserialize, Serialize};
 
 use crate::error::{Error, ErrorKind, Field};
 use crate::rounding::{Ladder, TieRule};
@@ -11,7 +10,7 @@ use crate::{PowerVector, Rx};
 
 /// Which toric lenses can be ordered. Common practice (varies by maker):
 /// cylinders −0.75, −1.25, −1.75, −2.25 D; axes in 10° steps.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct ToricSettings {
     /// Available cylinders, minus-cylinder form (negative), dioptres.
     pub cylinders: Vec<f64>,
@@ -82,7 +81,7 @@ pub fn round_axis(axis: u16, step: u16) -> u16 {
 }
 
 /// A toric contact lens chosen from what is available, and what it leaves.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq)]
 pub struct ToricChoice {
     /// The exact power at the cornea, minus-cylinder form.
     pub exact: Rx,

@@ -2,7 +2,6 @@
 //! mm, reading distances in cm (or inches), ages in years, adds in dioptres.
 //! Formulas take metres; the conversion happens here and nowhere else.
 
-use serde::{Deserialize, Serialize};
 
 use crate::error::{Error, ErrorKind, Field};
 use crate::format::{fmt_number, prose_power};
@@ -39,8 +38,7 @@ fn trim_number(x: f64) -> String {
 ///            "vertex distance 31 mm is outside 0–30 mm");
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
-#[derive(Clone, Copy, Debug, PartialEq, PartialOrd, Serialize, Deserialize)]
-#[serde(try_from = "f64", into = "f64")]
+#[derive(Clone, Copy, Debug, PartialEq, PartialOrd)]
 pub struct VertexDistance {
     mm: f64,
 }
@@ -98,18 +96,7 @@ impl VertexDistance {
     }
 }
 
-impl TryFrom<f64> for VertexDistance {
-    type Error = Error;
-    fn try_from(mm: f64) -> Result<VertexDistance, Error> {
-        VertexDistance::from_mm(mm)
-    }
-}
 
-impl From<VertexDistance> for f64 {
-    fn from(d: VertexDistance) -> f64 {
-        d.mm
-    }
-}
 
 /// Reading (near working) distance, 10–100 cm. Typed in cm or inches; held
 /// in cm.
@@ -120,8 +107,7 @@ impl From<VertexDistance> for f64 {
 /// assert!((ReadingDistance::from_inches(16.0)?.cm() - 40.64).abs() < 1e-12);
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
-#[derive(Clone, Copy, Debug, PartialEq, PartialOrd, Serialize, Deserialize)]
-#[serde(try_from = "f64", into = "f64")]
+#[derive(Clone, Copy, Debug, PartialEq, PartialOrd)]
 pub struct ReadingDistance {
     cm: f64,
 }
@@ -196,22 +182,11 @@ impl ReadingDistance {
     }
 }
 
-impl TryFrom<f64> for ReadingDistance {
-    type Error = Error;
-    fn try_from(cm: f64) -> Result<ReadingDistance, Error> {
-        ReadingDistance::from_cm(cm)
-    }
-}
 
-impl From<ReadingDistance> for f64 {
-    fn from(d: ReadingDistance) -> f64 {
-        d.cm
-    }
-}
 
 /// Where the reading distance was measured from. At 40 cm and 12 mm the two
 /// differ by about 0.07 D at the eye.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Default, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Default)]
 pub enum Measured {
     /// From the spectacle lens plane (the textbook convention; default).
     #[default]
@@ -228,8 +203,7 @@ pub enum Measured {
 /// assert_eq!(Age::new(0).unwrap_err().to_string(), "age 0 is outside 1–110");
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
-#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize, Deserialize)]
-#[serde(try_from = "u8", into = "u8")]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash)]
 pub struct Age(u8);
 
 impl Age {
@@ -257,18 +231,7 @@ impl Age {
     }
 }
 
-impl TryFrom<u8> for Age {
-    type Error = Error;
-    fn try_from(y: u8) -> Result<Age, Error> {
-        Age::new(y)
-    }
-}
 
-impl From<Age> for u8 {
-    fn from(a: Age) -> u8 {
-        a.0
-    }
-}
 
 /// A near addition: always plus, 0.00 to +4.00 D (0 = no add). Adds above
 /// +4.00 (low-vision work) are outside this tool's scope.
@@ -279,8 +242,7 @@ impl From<Age> for u8 {
 /// assert_eq!(Add::new(-1.0).unwrap_err().to_string(), "an add is always plus");
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
-#[derive(Clone, Copy, Debug, PartialEq, PartialOrd, Serialize, Deserialize)]
-#[serde(try_from = "f64", into = "f64")]
+#[derive(Clone, Copy, Debug, PartialEq, PartialOrd)]
 pub struct Add(f64);
 
 impl Add {
@@ -316,21 +278,10 @@ impl Add {
     }
 }
 
-impl TryFrom<f64> for Add {
-    type Error = Error;
-    fn try_from(d: f64) -> Result<Add, Error> {
-        Add::new(d)
-    }
-}
 
-impl From<Add> for f64 {
-    fn from(a: Add) -> f64 {
-        a.0
-    }
-}
 
 /// Which eye.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum Eye {
     /// Right eye (R, OD).
     Right,
@@ -347,7 +298,7 @@ pub enum Eye {
 /// assert_eq!(pair.get(Eye::Right), Some(&1));
 /// assert_eq!(pair.map(|x| x * 2).right, Some(2));
 /// ```
-#[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, Default, PartialEq)]
 pub struct EyePair<T> {
     /// Right eye.
     pub right: Option<T>,

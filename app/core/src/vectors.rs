@@ -2,7 +2,6 @@
 //! an application of Fourier analysis to the description and statistical
 //! analysis of refractive error", Optom Vis Sci 1997;74(6):367–375.
 
-use serde::{Deserialize, Serialize};
 
 use crate::Rx;
 
@@ -11,7 +10,7 @@ use crate::Rx;
 /// additive, so the difference of two vectors is the lens that would turn
 /// one into the other (used for residuals, including obliquely crossed
 /// cylinders from a rotated toric lens).
-#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq)]
 pub struct PowerVector {
     /// Spherical equivalent, dioptres.
     pub m: f64,

@@ -1,7 +1,6 @@
 //! Validation as data: sanity warnings returned with results, and the
 //! standing cautions, so the UI shows them without logic of its own.
 
-use serde::{Deserialize, Serialize};
 
 use crate::error::Field;
 use crate::format::{fmt_number, fmt_power};
@@ -10,7 +9,7 @@ use crate::rounding::{is_on_step, round_to_step, TieRule};
 use crate::{compensate_power, Rx, VertexDistance};
 
 /// A warning: the result stands, but the practitioner should look again.
-#[derive(Clone, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq, Eq)]
 pub struct Warning {
     /// What kind (a stable code for the UI and tests).
     pub kind: WarningKind,
@@ -21,7 +20,7 @@ pub struct Warning {
 }
 
 /// The kinds of [`Warning`].
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum WarningKind {
     /// The vertex change moves every meridian by less than a quarter step.
     BelowQuarterStep,

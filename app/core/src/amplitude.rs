@@ -5,7 +5,6 @@
 //! (citation details from memory; formulas verified): minimum 15 − 0.25·age,
 //! average 18.5 − 0.30·age, maximum 25 − 0.40·age, clamped at 0.
 
-
 use crate::rounding::{round_to_step, TieRule};
 use crate::Age;
 

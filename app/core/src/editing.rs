@@ -4,18 +4,18 @@
 //! arithmetic; a text that does not parse is left alone.
 
 use crate::format::{fmt_power, fmt_sphere};
-use crate::limits::ADD_MAX;
+use crate::limits;
 use crate::parse::{parse_add, parse_axis_field, parse_cylinder_field, parse_sphere_field};
 use crate::rounding::{round_to_step, TieRule};
 
 /// What a stepper steps.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum StepKind {
-    /// A sphere field: quarter dioptres, ±30 D, zero shown as `plano`.
+    /// A sphere field: quarter dioptres within [`limits::SPHERE`], zero shown as `plano`.
     Sphere,
-    /// A cylinder or an add: quarter dioptres, ±10 D.
+    /// A cylinder: quarter dioptres within [`limits::CYLINDER`].
     Cylinder,
-    /// An add: quarter dioptres from 0.00 to +4.00 (never minus).
+    /// An add: quarter dioptres within [`limits::ADD`] (never minus).
     Add,
     /// An axis: this many degrees, going round 180 → 5 (a deliberate press,
     /// never a typed value wrapped silently).
@@ -94,14 +94,19 @@ pub fn step_text(text: &str, kind: StepKind, up: bool) -> Option<String> {
             Some(next.to_string())
         }
         StepKind::Sphere | StepKind::Cylinder | StepKind::Add => {
-            let (value, limit) = if text.trim().is_empty() {
-                (0.0, 30.0)
+            let limit = match kind {
+                StepKind::Sphere => limits::SPHERE,
+                StepKind::Add => limits::ADD,
+                _ => limits::CYLINDER,
+            };
+            let value = if text.trim().is_empty() {
+                0.0
             } else if kind == StepKind::Sphere {
-                (parse_sphere_field(text).ok()?.value, 30.0)
+                parse_sphere_field(text).ok()?.value
             } else if kind == StepKind::Add {
-                (parse_add(text).ok()?.value.dioptres(), ADD_MAX)
+                parse_add(text).ok()?.value.dioptres()
             } else {
-                (parse_cylinder_field(text).ok()?.value, 10.0)
+                parse_cylinder_field(text).ok()?.value
             };
             let tie = if up { TieRule::TowardMinus } else { TieRule::TowardPlus };
             // Snap to the step below/above first, then take one step.
@@ -111,7 +116,8 @@ pub fn step_text(text: &str, kind: StepKind, up: bool) -> Option<String> {
                 (true, _, _) => snapped + 0.25,
                 (false, _, _) => snapped - 0.25,
             };
-            if next.abs() > limit + 1e-9 || (kind == StepKind::Add && !(0.0..=ADD_MAX + 1e-9).contains(&next)) {
+            // Quarter dioptres are exact in binary: no tolerance needed at the limit.
+            if !limit.contains(next) {
                 return None;
             }
             Some(if kind == StepKind::Sphere {

@@ -1,7 +1,6 @@
 //! Spherical equivalent at any plane, and whether a spherical lens is a
 //! reasonable substitute for a sphero-cylinder.
 
-
 use crate::error::{Error, ErrorKind, Field};
 use crate::format::fmt_number;
 use crate::{compensate, Rx, VertexDistance};

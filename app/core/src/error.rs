@@ -7,8 +7,8 @@
 
 use core::fmt;
 
-
-use crate::format::prose_power;
+use crate::format::fmt_power;
+use crate::limits::Limit;
 
 /// Which input (or which part of a result) an [`Error`], [`crate::Notice`] or
 /// [`crate::Warning`] concerns, so the UI can show it beside that field.
@@ -49,7 +49,7 @@ pub enum Field {
 }
 
 impl Field {
-    fn noun(self) -> &'static str {
+    pub(crate) fn noun(self) -> &'static str {
         match self {
             Field::Rx => "prescription",
             Field::Sphere => "sphere",
@@ -98,9 +98,11 @@ pub(crate) enum ErrorKind {
     /// decimal point restored (never applied automatically).
     OutOfRange {
         typed: String,
-        limit: &'static str,
+        limit: Limit,
         suggestions: Vec<String>,
     },
+    /// A value that is not a finite number.
+    NotANumber,
     /// A cylinder without an axis.
     CylinderNeedsAxis,
     /// An axis without a cylinder.
@@ -176,9 +178,9 @@ impl fmt::Display for Error {
         match &self.kind {
             ErrorKind::Empty => write!(f, "{noun} is empty"),
             ErrorKind::NeedsSign { magnitude } => {
-                let m = prose_power(magnitude.abs());
+                let m = fmt_power(magnitude.abs());
                 let m = m.trim_start_matches('+');
-                write!(f, "{noun} needs a sign: +{m} or \u{2212}{m}?")
+                write!(f, "{noun} needs a sign: +{m} or -{m}?")
             }
             ErrorKind::OutOfRange {
                 typed,
@@ -191,6 +193,7 @@ impl fmt::Display for Error {
                 }
                 Ok(())
             }
+            ErrorKind::NotANumber => write!(f, "{noun} is not a number"),
             ErrorKind::CylinderNeedsAxis => f.write_str("cylinder needs an axis"),
             ErrorKind::AxisNeedsCylinder => f.write_str("axis needs a cylinder"),
             ErrorKind::AxisNotWhole { typed } => {
@@ -219,7 +222,7 @@ impl fmt::Display for Error {
             ErrorKind::Singular { power } => write!(
                 f,
                 "no finite lens: the far point of {} lies at the new lens plane",
-                prose_power(*power)
+                fmt_power(*power)
             ),
             ErrorKind::BadSetting { what } => write!(f, "setting: {what}"),
         }

@@ -1,9 +1,9 @@
 //! Trade notation out: two decimals, a sign on every non-zero power,
 //! "plano", and `×` before the axis.
 //!
-//! Figures use the ASCII hyphen-minus `-` so text copied into other software,
-//! or searched for on the page, matches. Prose messages (errors, reasons)
-//! use the typographic minus `−` (U+2212) like printed text.
+//! Figures use the ASCII hyphen-minus `-` everywhere, in results and in prose
+//! (errors, notices, reasons) alike, so text copied into other software, or
+//! searched for on the page, matches, and one minus style is read throughout.
 
 use core::fmt;
 
@@ -114,12 +114,19 @@ pub fn fmt_length(x: f64) -> String {
     }
 }
 
-/// A power for prose (errors, reasons): two decimals, typographic minus.
-pub(crate) fn prose_power(x: f64) -> String {
-    fmt_power(x).replace('-', "\u{2212}")
+/// An axis with three digits, `005`, `090`, `180`, as orders are written so
+/// that 5 cannot be misread as 50 (common practice, no source).
+///
+/// ```
+/// assert_eq!(lensplane_core::fmt_axis(5), "005");
+/// assert_eq!(lensplane_core::fmt_axis(90), "090");
+/// assert_eq!(lensplane_core::fmt_axis(180), "180");
+/// ```
+pub fn fmt_axis(axis: u16) -> String {
+    format!("{axis:03}")
 }
 
-/// Prints `-7.30 -1.63 ×180`, `+6.47 -2.26 ×90`, `plano -0.50 ×90`,
+/// Prints `-7.30 -1.63 ×180`, `+6.47 -2.26 ×090`, `plano -0.50 ×090`,
 /// `-3.75 DS`, or `plano`. A cylinder that shows as 0.00 prints as
 /// spherical. The cylinder form is the one the value is in; call
 /// [`Rx::to_minus_cyl`] or [`Rx::to_plus_cyl`] first to choose.
@@ -127,7 +134,7 @@ pub(crate) fn prose_power(x: f64) -> String {
 /// ```
 /// let rx = lensplane_core::Rx::new(-2.0, -1.0, 180).unwrap();
 /// assert_eq!(rx.to_string(), "-2.00 -1.00 ×180");
-/// assert_eq!(rx.transpose().to_string(), "-3.00 +1.00 ×90");
+/// assert_eq!(rx.transpose().to_string(), "-3.00 +1.00 ×090");
 /// ```
 impl fmt::Display for Rx {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
@@ -139,7 +146,12 @@ impl fmt::Display for Rx {
                 write!(f, "{sphere} DS")
             }
         } else {
-            write!(f, "{sphere} {} \u{d7}{}", fmt_power(self.cylinder()), self.axis())
+            write!(
+                f,
+                "{sphere} {} \u{d7}{}",
+                fmt_power(self.cylinder()),
+                fmt_axis(self.axis())
+            )
         }
     }
 }

@@ -47,12 +47,12 @@ impl Num {
         }
     }
 
-    /// As typed, with a typographic minus for prose: "−250", "2.30".
+    /// As typed, with the ASCII minus every figure uses: "-250", "2.30".
     pub fn typed(&self) -> String {
         let sign = match self.sign {
             Sign::None => "",
             Sign::Plus => "+",
-            Sign::Minus => "\u{2212}",
+            Sign::Minus => "-",
             Sign::PlusMinus => "±",
         };
         match &self.frac {

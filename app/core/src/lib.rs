@@ -8,7 +8,7 @@
 //!
 //! **Results are starting points, never a prescription**: confirm by
 //! over-refraction and acuity, and defer to local regulations and licensed
-//! practice. [`CAUTIONS`] lists the standing cautions for the UI.
+//! practice. [`cautions_for`] gives each page its standing cautions.
 //!
 //! ## The model
 //!
@@ -48,7 +48,7 @@
 //! | power vectors | [`PowerVector`] | `vectors.rs` |
 //! | decimal numbers in text (no std float parser: size) | [`read_decimal`] | `decimal.rs` |
 //! | parsing typed text | [`parse_rx`], [`Rx::from_fields`], [`parse_sphere_field`], [`parse_cylinder_field`], [`parse_axis_field`], [`parse_vertex_mm`], [`parse_reading_distance`], [`parse_reading_inches`], [`parse_add`], [`parse_age`] | `parse.rs`, `lex.rs` |
-//! | trade notation out | `Display for Rx`, [`fmt_power`], [`fmt_sphere`], [`fmt_number`], [`fmt_dioptres`], [`fmt_length`] | `format.rs` |
+//! | trade notation out | `Display for Rx`, [`fmt_axis`], [`fmt_power`], [`fmt_sphere`], [`fmt_number`], [`fmt_dioptres`], [`fmt_length`] | `format.rs` |
 //! | vertex | [`compensate`], [`compensate_power`], [`effective_power`] | `vertex.rs` |
 //! | rounding, ladders, residuals | [`TieRule`], [`Ladder`], [`order_lens`], [`OrderSettings`] | `rounding.rs` |
 //! | toric contact lenses | [`choose_toric`], [`ToricSettings`] | `toric.rs` |
@@ -56,8 +56,9 @@
 //! | typed substitute limits | [`parse_cylinder_limit`], [`parse_ratio_limit`], [`SubstituteSettings::from_texts`] | `settings_text.rs` |
 //! | near | [`near_figures`], [`NearGeometry`] | `near.rs` |
 //! | amplitude by age | [`hofstetter`], [`tentative_add`] | `amplitude.rs` |
-//! | warnings, cautions | [`Warning`], [`rx_warnings`], [`vertex_warnings`], [`CAUTIONS`] | `warnings.rs` |
-//! | limits | hard limits and warning thresholds | `limits.rs` |
+//! | warnings beside a result | [`Warning`], [`rx_warnings`], [`vertex_warnings`] | `warnings.rs` |
+//! | standing cautions of a page | [`cautions_for`], [`Caution`], [`Calculation`] | `cautions.rs` |
+//! | limits (checks and their words) | [`limits::Limit`], [`limits::SPHERE`] … | `limits.rs` |
 //! | ± control and steppers of the entry form | [`toggle_sign`], [`step_text`] | `editing.rs` |
 //! | checked quantities | [`VertexDistance`], [`ReadingDistance`], [`Age`], [`Add`], [`EyePair`] | `units.rs` |
 //! | the one error type | [`Error`], [`Field`] | `error.rs` |
@@ -92,10 +93,11 @@
 //!    (2.675 → 2.68), separate from order rounding, which uses the explicit
 //!    [`TieRule`] (default toward plus). Zero prints `0.00` ([`fmt_power`])
 //!    or `plano` (sphere); a cylinder that shows as 0.00 prints as `DS`;
-//!    a plano spherical prescription prints `plano`. Axes print without
-//!    leading zeros (`×5`). Figures use ASCII `-`; error messages use the
-//!    typographic minus `−` as in printed prose. A non-finite figure (never
-//!    produced within the limits) would print `—`, never `0.00`.
+//!    a plano spherical prescription prints `plano`. Axes print with three
+//!    digits (`×005`, `×090`), as orders are written. Every figure, in
+//!    results and in prose alike, uses the ASCII `-` (one minus style). A
+//!    non-finite figure (never produced within the limits) would print `—`,
+//!    never `0.00`.
 //! 4. **Rounding per meridian** is what reports order; sphere-and-cylinder
 //!    rounding ([`round_separately`]) is available only for comparison.
 //! 5. **Toric offer.** Shown when the target is the cornea and the cylinder
@@ -137,13 +139,14 @@
 #![warn(missing_docs)]
 
 mod amplitude;
+mod cautions;
 mod decimal;
 mod editing;
 mod equivalent;
 mod error;
 mod format;
 mod lex;
-mod limits;
+pub mod limits;
 mod meridians;
 mod near;
 mod parse;
@@ -160,13 +163,14 @@ mod vertex;
 mod warnings;
 
 pub use amplitude::{amplitude_reliable, hofstetter, tentative_add, Amplitude, TentativeAdd};
+pub use cautions::{cautions, cautions_for, Calculation, Caution, CautionKind, Scope};
 pub use decimal::read_decimal;
 pub use editing::{step_text, toggle_sign, StepKind};
 pub use equivalent::{
     assess_substitute, spherical_equivalent_at, Orientation, SubstituteAssessment, SubstituteSettings, Verdict,
 };
 pub use error::{Error, Field};
-pub use format::{fmt_dioptres, fmt_length, fmt_number, fmt_power, fmt_sphere};
+pub use format::{fmt_axis, fmt_dioptres, fmt_length, fmt_number, fmt_power, fmt_sphere};
 pub use meridians::{Meridian, PowerCross};
 pub use near::{near_figures, NearFigures, NearGeometry};
 pub use parse::{
@@ -186,4 +190,4 @@ pub use toric::{choose_toric, round_axis, ToricChoice, ToricSettings};
 pub use units::{Add, Age, Eye, EyePair, Measured, ReadingDistance, VertexDistance};
 pub use vectors::PowerVector;
 pub use vertex::{compensate, compensate_meridians, compensate_power, effective_power};
-pub use warnings::{rx_warnings, vertex_warnings, Warning, WarningKind, CAUTIONS};
+pub use warnings::{rx_warnings, vertex_warnings, Warning, WarningKind};

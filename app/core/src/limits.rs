@@ -1,30 +1,198 @@
 //! Hard limits (errors) and sanity thresholds (warnings), in one place.
-//! See the crate documentation, "Limits".
+//! Each is a [`Limit`]: the check and the words of its message come from the
+//! same numbers, so a limit cannot say one thing and check another. See the
+//! crate documentation, "Limits".
 
-/// Largest sphere accepted as input, dioptres.
-pub const SPHERE_LIMIT: f64 = 30.0;
-/// Largest cylinder (either sign) accepted as input, dioptres.
-pub const CYLINDER_LIMIT: f64 = 10.0;
-/// Sphere beyond this draws a warning.
-pub const SPHERE_WARN: f64 = 20.0;
-/// Cylinder beyond this draws a warning.
-pub const CYLINDER_WARN: f64 = 6.0;
-/// Largest vertex distance, mm.
-pub const VERTEX_MAX_MM: f64 = 30.0;
+use core::fmt;
+
+use crate::format::{fmt_length, fmt_power};
+
+/// The unit a [`Limit`] is written in.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Unit {
+    /// Dioptres, written `D`.
+    Dioptres,
+    /// Millimetres, written `mm`.
+    Millimetres,
+    /// Centimetres, written `cm`.
+    Centimetres,
+    /// Degrees of axis or rotation (written without a sign: `1–180`).
+    Degrees,
+    /// Whole years (written without a unit: `1–110`).
+    Years,
+}
+
+impl Unit {
+    fn suffix(self) -> &'static str {
+        match self {
+            Unit::Dioptres => " D",
+            Unit::Millimetres => " mm",
+            Unit::Centimetres => " cm",
+            Unit::Degrees | Unit::Years => "",
+        }
+    }
+}
+
+/// How a [`Limit`] is written in messages.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum Form {
+    /// `±30 D`: a magnitude, either sign.
+    Symmetric,
+    /// `0–30 mm`: a span.
+    Span,
+    /// `0.00 to +4.00`: a span of lens powers, in trade notation.
+    Powers,
+    /// `6 D`: a threshold on a magnitude.
+    Above,
+}
+
+/// A range of accepted (or usual) values with its unit.
+///
+/// ```
+/// use lensplane_core::limits;
+/// assert_eq!(limits::SPHERE.to_string(), "±30 D");
+/// assert!(limits::SPHERE.contains(-30.0) && !limits::SPHERE.contains(30.25));
+/// assert_eq!(limits::VERTEX.to_string(), "0–30 mm");
+/// assert_eq!(limits::ADD.to_string(), "0.00 to +4.00");
+/// assert_eq!(limits::CYLINDER_WARN.to_string(), "6 D");
+/// ```
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Limit {
+    /// Smallest value inside the limit.
+    pub min: f64,
+    /// Largest value inside the limit.
+    pub max: f64,
+    /// The unit of `min` and `max`.
+    pub unit: Unit,
+    form: Form,
+}
+
+impl Limit {
+    const fn symmetric(max: f64, unit: Unit) -> Limit {
+        Limit {
+            min: -max,
+            max,
+            unit,
+            form: Form::Symmetric,
+        }
+    }
+
+    const fn span(min: f64, max: f64, unit: Unit) -> Limit {
+        Limit {
+            min,
+            max,
+            unit,
+            form: Form::Span,
+        }
+    }
+
+    /// True when `x` is finite and within `min..=max`.
+    ///
+    /// ```
+    /// assert!(lensplane_core::limits::AGE.contains(110.0));
+    /// assert!(!lensplane_core::limits::AGE.contains(f64::NAN));
+    /// ```
+    pub fn contains(&self, x: f64) -> bool {
+        x.is_finite() && self.min <= x && x <= self.max
+    }
+
+    /// True when `|x|` is above the limit's largest magnitude (for the
+    /// thresholds that warn, like [`SPHERE_WARN`]).
+    ///
+    /// ```
+    /// assert!(lensplane_core::limits::MEASURE_VERTEX.exceeded_by(-4.25));
+    /// assert!(!lensplane_core::limits::MEASURE_VERTEX.exceeded_by(4.0));
+    /// ```
+    pub fn exceeded_by(&self, x: f64) -> bool {
+        x.abs() > self.max
+    }
+}
+
+impl fmt::Display for Limit {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let unit = self.unit.suffix();
+        match self.form {
+            Form::Symmetric => write!(f, "±{}{unit}", fmt_length(self.max)),
+            Form::Span => write!(f, "{}–{}{unit}", fmt_length(self.min), fmt_length(self.max)),
+            Form::Powers => write!(f, "{} to {}", fmt_power(self.min), fmt_power(self.max)),
+            Form::Above => write!(f, "{}{unit}", fmt_length(self.max)),
+        }
+    }
+}
+
+/// Sphere accepted as input.
+pub const SPHERE: Limit = Limit::symmetric(30.0, Unit::Dioptres);
+/// Cylinder accepted as input (either sign: minus- or plus-cylinder form).
+pub const CYLINDER: Limit = Limit::symmetric(10.0, Unit::Dioptres);
+/// Axis, degrees (ISO 8429 notation, 180 written for 0).
+pub const AXIS: Limit = Limit::span(1.0, 180.0, Unit::Degrees);
+/// Vertex distance, mm (0: a contact lens on the cornea).
+pub const VERTEX: Limit = Limit::span(0.0, 30.0, Unit::Millimetres);
+/// Reading distance, cm.
+pub const READING: Limit = Limit::span(10.0, 100.0, Unit::Centimetres);
+/// Age, whole years.
+pub const AGE: Limit = Limit::span(1.0, 110.0, Unit::Years);
+/// Near addition (always plus; 0 is no add).
+pub const ADD: Limit = Limit {
+    min: 0.0,
+    max: 4.0,
+    unit: Unit::Dioptres,
+    form: Form::Powers,
+};
+
+/// A meridian beyond this draws a warning (check the entry).
+pub const SPHERE_WARN: Limit = Limit::symmetric(20.0, Unit::Dioptres);
+/// A cylinder above this draws a warning (check the entry).
+pub const CYLINDER_WARN: Limit = Limit {
+    min: 0.0,
+    max: 6.0,
+    unit: Unit::Dioptres,
+    form: Form::Above,
+};
+/// Usual spectacle vertex distances; outside them, a warning.
+pub const VERTEX_USUAL: Limit = Limit::span(8.0, 20.0, Unit::Millimetres);
+/// Any meridian beyond this: measure the vertex distance.
+pub const MEASURE_VERTEX: Limit = Limit::symmetric(4.0, Unit::Dioptres);
+
 /// Typed vertex distances under this (but not 0) are questioned, mm.
 pub const VERTEX_SHORT_MM: f64 = 3.0;
-/// Usual spectacle vertex range, mm (outside: a warning).
-pub const VERTEX_USUAL_MM: (f64, f64) = (8.0, 20.0);
-/// Reading distance range, cm.
-pub const READING_CM: (f64, f64) = (10.0, 100.0);
-/// Age range, years.
-pub const AGE_YEARS: (u8, u8) = (1, 110);
-/// Largest add accepted, dioptres.
-pub const ADD_MAX: f64 = 4.0;
-/// Any meridian beyond this: measure the vertex distance.
-pub const MEASURE_VERTEX_ABOVE: f64 = 4.0;
 /// A computed meridian beyond this means the far point sits (practically)
 /// at the new lens plane: reported as an error, not a number.
 pub const RESULT_LIMIT: f64 = 100.0;
 /// Centimetres per inch.
 pub const CM_PER_INCH: f64 = 2.54;
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn every_limit_reads_as_its_numbers() {
+        let cases = [
+            (SPHERE, "±30 D"),
+            (CYLINDER, "±10 D"),
+            (AXIS, "1–180"),
+            (VERTEX, "0–30 mm"),
+            (READING, "10–100 cm"),
+            (AGE, "1–110"),
+            (ADD, "0.00 to +4.00"),
+            (SPHERE_WARN, "±20 D"),
+            (CYLINDER_WARN, "6 D"),
+            (VERTEX_USUAL, "8–20 mm"),
+            (MEASURE_VERTEX, "±4 D"),
+        ];
+        for (limit, words) in cases {
+            assert_eq!(limit.to_string(), words);
+        }
+    }
+
+    #[test]
+    fn edges_are_inside() {
+        for l in [SPHERE, CYLINDER, AXIS, VERTEX, READING, AGE, ADD, VERTEX_USUAL] {
+            assert!(l.contains(l.min) && l.contains(l.max), "{l}");
+            assert!(!l.contains(l.max + 0.01) && !l.contains(l.min - 0.01), "{l}");
+        }
+        assert!(!SPHERE_WARN.exceeded_by(20.0) && SPHERE_WARN.exceeded_by(-20.01));
+        assert!(!CYLINDER_WARN.exceeded_by(-6.0) && CYLINDER_WARN.exceeded_by(-6.25));
+    }
+}

@@ -1,6 +1,5 @@
 //! The power cross: a prescription as two principal meridians.
 
-
 use crate::error::{Error, ErrorKind, Field};
 use crate::rx::{check_axis, clean, perpendicular};
 use crate::Rx;
@@ -35,15 +34,7 @@ impl PowerCross {
     pub fn new(along: f64, across: f64, axis: u16) -> Result<PowerCross, Error> {
         for (p, field) in [(along, Field::Sphere), (across, Field::Cylinder)] {
             if !p.is_finite() {
-                return Err(Error::new(
-                    ErrorKind::OutOfRange {
-                        typed: "(not a number)".into(),
-                        limit: "finite powers",
-                        suggestions: vec![],
-                    },
-                    field,
-                    None,
-                ));
+                return Err(Error::new(ErrorKind::NotANumber, field, None));
             }
         }
         check_axis(axis)?;

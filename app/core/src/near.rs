@@ -11,7 +11,6 @@
 //! Not the shortcut V(F + A) − V(F), which treats the near prescription as
 //! if the object were at infinity (wrong by up to ~0.6 D at ±6 D).
 
-
 use crate::error::Error;
 use crate::vertex::effective_power;
 use crate::{Measured, ReadingDistance, VertexDistance};

@@ -6,15 +6,13 @@
 //! missing sign, a missing axis, an axis outside 1–180 or a number that looks
 //! like it lost its decimal point is an error that asks, never a guess.
 
-
 use crate::error::{Error, ErrorKind, Field};
-use crate::format::{fmt_number, fmt_power};
+use crate::format::{fmt_length, fmt_power};
 use crate::lex::{lex, Num, Sign, Tok, Token};
-use crate::limits::{
-    ADD_MAX, CM_PER_INCH, CYLINDER_LIMIT, CYLINDER_WARN, READING_CM, SPHERE_LIMIT, SPHERE_WARN, VERTEX_MAX_MM,
-    VERTEX_SHORT_MM,
-};
-use crate::rounding::{is_on_step, round_to_step, TieRule};
+use crate::limits::{self, Limit, CM_PER_INCH, VERTEX_SHORT_MM};
+use crate::rounding::is_on_step;
+use crate::units::range_error;
+use crate::warnings::off_step;
 use crate::{Add, Age, ReadingDistance, Rx, VertexDistance};
 
 /// A parsed value and what the parser wants the user to know about how it
@@ -105,10 +103,12 @@ impl Role {
             Role::Cylinder => Field::Cylinder,
         }
     }
-    fn limit(self) -> (f64, f64, &'static str) {
+    /// The hard limit, and the range within which a restored decimal
+    /// point is plausible (the warning threshold).
+    fn limits(self) -> (Limit, Limit) {
         match self {
-            Role::Sphere => (SPHERE_LIMIT, SPHERE_WARN, "±30 D"),
-            Role::Cylinder => (CYLINDER_LIMIT, CYLINDER_WARN, "±10 D"),
+            Role::Sphere => (limits::SPHERE, limits::SPHERE_WARN),
+            Role::Cylinder => (limits::CYLINDER, limits::CYLINDER_WARN),
         }
     }
 }
@@ -129,7 +129,7 @@ fn restored(num: &Num, plausible: f64) -> Vec<f64> {
 }
 
 fn signed_suggestions(sign: Sign, candidates: &[f64]) -> Vec<String> {
-    let p = |x: f64| crate::format::prose_power(x);
+    let p = fmt_power;
     candidates
         .iter()
         .map(|&c| match sign {
@@ -163,14 +163,14 @@ fn reading_notices(num: &Num, field: Field, value: f64) -> Vec<Notice> {
 /// implied-decimal suggestions, off-step notice.
 fn power(t: &Token, num: &Num, role: Role) -> Result<(f64, Vec<Notice>), Error> {
     let field = role.field();
-    let (limit, plausible, limit_text) = role.limit();
+    let (limit, plausible) = role.limits();
     let m = num.magnitude();
-    if m > limit {
-        let suggestions = signed_suggestions(num.sign, &restored(num, plausible));
+    if !limit.contains(m) {
+        let suggestions = signed_suggestions(num.sign, &restored(num, plausible.max));
         return Err(Error::new(
             ErrorKind::OutOfRange {
                 typed: num.typed(),
-                limit: limit_text,
+                limit,
                 suggestions,
             },
             field,
@@ -182,43 +182,15 @@ fn power(t: &Token, num: &Num, role: Role) -> Result<(f64, Vec<Notice>), Error> 
     }
     let value = num.value() + 0.0;
     let mut notices = reading_notices(num, field, value);
-    if !is_on_step(value, 0.25) {
-        let nearest = round_to_step(value, 0.25, TieRule::default());
-        notices.push(notice(
-            NoticeKind::OffStep,
-            field,
-            format!(
-                "{} {} is between quarter steps; nearest {}",
-                noun(field),
-                fmt_power(value),
-                fmt_power(nearest)
-            ),
-        ));
+    if let Some(message) = off_step(field, value) {
+        notices.push(notice(NoticeKind::OffStep, field, message));
     }
     Ok((value, notices))
 }
 
-fn noun(field: Field) -> &'static str {
-    match field {
-        Field::Cylinder => "cylinder",
-        Field::Add => "add",
-        _ => "sphere",
-    }
-}
-
 /// An axis number: whole degrees 0–180, 0 stored as 180.
 fn axis(t: &Token, num: &Num) -> Result<(u16, Vec<Notice>), Error> {
-    let out_of_range = |typed: String| {
-        Error::new(
-            ErrorKind::OutOfRange {
-                typed,
-                limit: "1–180",
-                suggestions: vec![],
-            },
-            Field::Axis,
-            Some(t.start),
-        )
-    };
+    let out_of_range = |typed: String| range_error(Field::Axis, typed, limits::AXIS).at(t.start);
     if num.frac.is_some() {
         return Err(Error::new(
             ErrorKind::AxisNotWhole { typed: num.typed() },
@@ -265,7 +237,7 @@ fn axis(t: &Token, num: &Num) -> Result<(u16, Vec<Notice>), Error> {
 /// assert_eq!(p.notices[0].message, "axis 000 is written 180: stored as 180");
 ///
 /// assert_eq!(parse_rx("2.00 -1.00 x90").unwrap_err().to_string(),
-///            "sphere needs a sign: +2.00 or \u{2212}2.00?");
+///            "sphere needs a sign: +2.00 or -2.00?");
 /// assert_eq!(parse_rx("-2.00 -1.00").unwrap_err().to_string(), "cylinder needs an axis");
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
@@ -436,7 +408,7 @@ fn finish(
 /// assert_eq!(parse_sphere_field("–6")?.value, -6.0);
 /// assert_eq!(parse_sphere_field("plano")?.value, 0.0);
 /// assert_eq!(parse_sphere_field("-250").unwrap_err().to_string(),
-///            "sphere \u{2212}250 is outside ±30 D: did you mean \u{2212}2.50?");
+///            "sphere -250 is outside ±30 D: did you mean -2.50?");
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
 pub fn parse_sphere_field(text: &str) -> Result<Parsed<f64>, Error> {
@@ -471,7 +443,7 @@ pub fn parse_sphere_field(text: &str) -> Result<Parsed<f64>, Error> {
 /// assert_eq!(parse_cylinder_field("-1,25")?.value, -1.25);
 /// assert_eq!(parse_cylinder_field("")?.value, 0.0);
 /// assert_eq!(parse_cylinder_field("1.00").unwrap_err().to_string(),
-///            "cylinder needs a sign: +1.00 or \u{2212}1.00?");
+///            "cylinder needs a sign: +1.00 or -1.00?");
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
 pub fn parse_cylinder_field(text: &str) -> Result<Parsed<f64>, Error> {
@@ -509,7 +481,7 @@ pub fn parse_cylinder_field(text: &str) -> Result<Parsed<f64>, Error> {
 /// assert_eq!(parse_axis_field("x005")?.value, Some(5));
 /// assert_eq!(parse_axis_field("")?.value, None);
 /// assert_eq!(parse_axis_field("181").unwrap_err().to_string(), "axis 181 is outside 1–180");
-/// assert_eq!(parse_axis_field("-10").unwrap_err().to_string(), "axis \u{2212}10 is outside 1–180");
+/// assert_eq!(parse_axis_field("-10").unwrap_err().to_string(), "axis -10 is outside 1–180");
 /// assert_eq!(parse_axis_field("90.5").unwrap_err().to_string(),
 ///            "axis 90.5 must be a whole number of degrees");
 /// # Ok::<(), lensplane_core::Error>(())
@@ -585,11 +557,6 @@ fn single_number(toks: &[Token], field: Field) -> Result<NumberAndUnit<'_>, Erro
     Ok((t, n, unit))
 }
 
-fn trim(x: f64) -> String {
-    let s = fmt_number(x);
-    s.trim_end_matches('0').trim_end_matches('.').to_string()
-}
-
 /// Parse a vertex distance in mm (`12`, `12 mm`, `1.2 cm`, `0.012 m`).
 /// `0` is a contact lens on the cornea. A bare number under 3 mm (but not
 /// 0) is questioned, since it is usually cm or m typed in a mm field; over
@@ -610,15 +577,7 @@ pub fn parse_vertex_mm(text: &str) -> Result<Parsed<VertexDistance>, Error> {
     let toks = lex(text, field)?;
     let (t, n, unit) = single_number(&toks, field)?;
     if n.sign == Sign::Minus {
-        return Err(Error::new(
-            ErrorKind::OutOfRange {
-                typed: format!("{} mm", n.typed()),
-                limit: "0–30 mm",
-                suggestions: vec![],
-            },
-            field,
-            Some(t.start),
-        ));
+        return Err(range_error(field, format!("{} mm", n.typed()), limits::VERTEX).at(t.start));
     }
     if n.sign == Sign::PlusMinus {
         return Err(unexpected(t, field));
@@ -632,7 +591,7 @@ pub fn parse_vertex_mm(text: &str) -> Result<Parsed<VertexDistance>, Error> {
             notices.push(notice(
                 NoticeKind::UnitConverted,
                 field,
-                format!("{} cm read as {} mm", trim(m), trim(m * 10.0)),
+                format!("{} cm read as {} mm", fmt_length(m), fmt_length(m * 10.0)),
             ));
             m * 10.0
         }
@@ -640,7 +599,7 @@ pub fn parse_vertex_mm(text: &str) -> Result<Parsed<VertexDistance>, Error> {
             notices.push(notice(
                 NoticeKind::UnitConverted,
                 field,
-                format!("{} m read as {} mm", trim(m), trim(m * 1000.0)),
+                format!("{} m read as {} mm", fmt_length(m), fmt_length(m * 1000.0)),
             ));
             m * 1000.0
         }
@@ -648,9 +607,9 @@ pub fn parse_vertex_mm(text: &str) -> Result<Parsed<VertexDistance>, Error> {
     };
     if mm > 0.0 && mm < VERTEX_SHORT_MM {
         let candidate = if mm < 0.1 { mm * 1000.0 } else { mm * 10.0 };
-        let suggestion = (VERTEX_SHORT_MM..=VERTEX_MAX_MM)
+        let suggestion = (VERTEX_SHORT_MM..=limits::VERTEX.max)
             .contains(&candidate)
-            .then(|| trim(candidate));
+            .then(|| fmt_length(candidate));
         return Err(Error::new(
             ErrorKind::VertexTooShort {
                 typed: n.typed(),
@@ -709,15 +668,15 @@ fn reading_distance(text: &str, bare_inches: bool) -> Result<Parsed<ReadingDista
     let cm = match (unit.map(|u| &u.tok), word(unit)) {
         (None, _) if bare_inches => m * CM_PER_INCH,
         (None, _) => {
-            if (20.0..=READING_CM.1).contains(&m) {
+            if (20.0..=limits::READING.max).contains(&m) {
                 notices.push(notice(
                     NoticeKind::UnitAssumed,
                     field,
-                    format!("{} read as cm", trim(m)),
+                    format!("{} read as cm", fmt_length(m)),
                 ));
                 m
-            } else if m <= READING_CM.1 {
-                let suggestion = (m > 0.0 && m <= 1.0).then(|| format!("{} cm", trim(m * 100.0)));
+            } else if m <= limits::READING.max {
+                let suggestion = (m > 0.0 && m <= 1.0).then(|| format!("{} cm", fmt_length(m * 100.0)));
                 return Err(Error::new(
                     ErrorKind::NeedsUnit {
                         typed: n.typed(),
@@ -772,15 +731,12 @@ pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
         _ => {}
     }
     let m = n.magnitude();
-    if m > ADD_MAX {
-        let suggestions = restored(n, ADD_MAX)
-            .into_iter()
-            .map(crate::format::prose_power)
-            .collect();
+    if !limits::ADD.contains(m) {
+        let suggestions = restored(n, limits::ADD.max).into_iter().map(fmt_power).collect();
         return Err(Error::new(
             ErrorKind::OutOfRange {
                 typed: n.typed(),
-                limit: "0.00 to +4.00",
+                limit: limits::ADD,
                 suggestions,
             },
             field,
@@ -795,16 +751,8 @@ pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
             format!("read the comma as a decimal point: {}", fmt_power(m)),
         ));
     }
-    if !is_on_step(m, 0.25) {
-        notices.push(notice(
-            NoticeKind::OffStep,
-            field,
-            format!(
-                "add {} is between quarter steps; nearest {}",
-                fmt_power(m),
-                fmt_power(round_to_step(m, 0.25, TieRule::default()))
-            ),
-        ));
+    if let Some(message) = off_step(field, m) {
+        notices.push(notice(NoticeKind::OffStep, field, message));
     }
     let value = Add::new(m).map_err(|e| e.at(t.start))?;
     Ok(Parsed { value, notices })
@@ -835,27 +783,11 @@ pub fn parse_age(text: &str) -> Result<Parsed<Age>, Error> {
         ));
     }
     if n.sign == Sign::Minus || n.sign == Sign::PlusMinus || n.int.len() > 3 {
-        return Err(Error::new(
-            ErrorKind::OutOfRange {
-                typed: n.typed(),
-                limit: "1–110",
-                suggestions: vec![],
-            },
-            field,
-            Some(t.start),
-        ));
+        return Err(range_error(field, n.typed(), limits::AGE).at(t.start));
     }
     let years: u16 = n.int.parse().unwrap_or(u16::MAX);
     let Ok(years) = u8::try_from(years) else {
-        return Err(Error::new(
-            ErrorKind::OutOfRange {
-                typed: n.int.clone(),
-                limit: "1–110",
-                suggestions: vec![],
-            },
-            field,
-            Some(t.start),
-        ));
+        return Err(range_error(field, n.int.clone(), limits::AGE).at(t.start));
     };
     let value = Age::new(years).map_err(|e| e.at(t.start))?;
     Ok(Parsed { value, notices: vec![] })

@@ -1,6 +1,5 @@
 //! The spherical-equivalent panel's entry point.
 
-
 use crate::equivalent::{assess_substitute, SubstituteAssessment, SubstituteSettings};
 use crate::error::Error;
 use crate::report_vertex::LadderKind;

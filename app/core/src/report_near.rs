@@ -1,12 +1,11 @@
 //! The near panel's entry point.
 
-
 use crate::amplitude::{amplitude_reliable, hofstetter, tentative_add, Amplitude, TentativeAdd};
 use crate::error::{Error, Field};
 use crate::format::{fmt_number, fmt_power};
 use crate::near::{near_figures, NearFigures, NearGeometry};
-use crate::rounding::{is_on_step, round_meridians, round_to_step, OrderSettings};
-use crate::warnings::{rx_warnings, vertex_warnings, warn, Warning, WarningKind};
+use crate::rounding::{round_meridians, round_to_step, OrderSettings};
+use crate::warnings::{off_step, rx_warnings, vertex_warnings, warn, Warning, WarningKind};
 use crate::{compensate, Add, Age, Measured, Meridian, PowerCross, ReadingDistance, Rx, VertexDistance};
 
 /// What the near panel sends for one eye.
@@ -170,30 +169,9 @@ pub fn near_report(input: &NearInput) -> Result<NearReport, Error> {
 
     let mut warnings = rx_warnings(rx);
     warnings.extend(vertex_warnings(rx, *spectacle_vertex, *target));
-    if !is_on_step(a, 0.25) {
-        warnings.push(warn(
-            WarningKind::OffStep,
-            Field::Add,
-            format!(
-                "add {} is between quarter steps; nearest {}",
-                fmt_power(a),
-                fmt_power(round_to_step(a, 0.25, tie))
-            ),
-        ));
+    if let Some(message) = off_step(Field::Add, a) {
+        warnings.push(warn(WarningKind::OffStep, Field::Add, message));
     }
-    if target.is_cornea() {
-        warnings.push(warn(
-            WarningKind::MultifocalLabels,
-            Field::Near,
-            "multifocal contact-lens \"add\" labels are not optical adds: fit by the maker's guide and trial"
-                .to_string(),
-        ));
-    }
-    warnings.push(warn(
-        WarningKind::TrialAtDistance,
-        Field::Near,
-        "trial the add at the patient's real reading distance before ordering".to_string(),
-    ));
     let amplitude = age.map(|age| {
         let amp = hofstetter(age);
         let demand = reading.demand();
@@ -206,12 +184,6 @@ pub fn near_report(input: &NearInput) -> Result<NearReport, Error> {
         }
     });
     if let Some(amp) = &amplitude {
-        warnings.push(warn(
-            WarningKind::PopulationEstimate,
-            Field::Amplitude,
-            "amplitude by age is a population estimate (Hofstetter): refine with the patient's measured amplitude"
-                .to_string(),
-        ));
         if !amp.reliable {
             warnings.push(warn(
                 WarningKind::AmplitudeUnreliable,
@@ -260,10 +232,7 @@ fn near_summary(se: f64, add: f64, target: VertexDistance, f: &NearFigures) -> S
     let wearing = if target.is_cornea() {
         "in contact lenses".to_string()
     } else {
-        format!(
-            "with the lens at {} mm",
-            fmt_number(target.mm()).trim_end_matches('0').trim_end_matches('.')
-        )
+        format!("with the lens at {} mm", crate::format::fmt_length(target.mm()))
     };
     let diff = f.accommodation_target - f.accommodation_spectacles;
     let more = if diff.abs() < 0.005 {

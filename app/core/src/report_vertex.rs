@@ -1,6 +1,5 @@
 //! The vertex panel's entry point: everything the UI shows for one eye.
 
-
 use crate::error::{Error, Field};
 use crate::format::fmt_power;
 use crate::rounding::{order_lens, round_to_step, OrderSettings, OrderedLens};
@@ -94,7 +93,7 @@ pub(crate) fn vertex_reason(rx: &Rx, shift_m: f64) -> String {
 ///     settings: OrderSettings::default(),
 /// })?;
 /// assert_eq!(report.exact.to_string(), "-7.30 -1.63 ×180");
-/// assert_eq!(report.exact_plus_cyl.to_string(), "-8.93 +1.63 ×90");
+/// assert_eq!(report.exact_plus_cyl.to_string(), "-8.93 +1.63 ×090");
 /// assert_eq!(report.ordered.ordered.to_string(), "-7.50 -1.50 ×180");
 /// assert_eq!(report.reason, "moving a correction toward the eye needs more plus (less minus)");
 /// assert_eq!(report.toric.unwrap().ordered.to_string(), "-7.00 -1.75 ×180");

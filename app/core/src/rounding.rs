@@ -1,7 +1,6 @@
 //! Rounding to orderable powers: quarter steps with an explicit tie rule,
 //! and availability ladders (finer steps near zero, coarser beyond).
 
-
 use crate::error::{Error, ErrorKind, Field};
 use crate::{compensate_meridians, Meridian, PowerCross, PowerVector, Rx, ToricSettings, VertexDistance};
 

@@ -1,9 +1,9 @@
 //! The sphero-cylindrical prescription and its two cylinder forms.
 
-
-use crate::error::{Error, ErrorKind, Field};
-use crate::format::prose_power;
-use crate::limits::{CYLINDER_LIMIT, SPHERE_LIMIT};
+use crate::error::{Error, Field};
+use crate::format::fmt_power;
+use crate::limits::{self, Limit};
+use crate::units::range_error;
 use crate::{Meridian, PowerCross, PowerVector};
 
 /// A sphero-cylindrical prescription: sphere and cylinder in dioptres, axis
@@ -30,32 +30,20 @@ pub struct Rx {
     axis: u16,
 }
 
-fn out_of_range(field: Field, value: f64) -> Error {
-    let limit = match field {
-        Field::Sphere => "±30 D",
-        _ => "±10 D",
-    };
+fn out_of_range(field: Field, value: f64, limit: Limit) -> Error {
     let typed = if value.is_finite() {
-        prose_power(value)
+        fmt_power(value)
     } else {
         "(not a number)".into()
     };
-    crate::units::range_error(field, typed, limit)
+    range_error(field, typed, limit)
 }
 
 pub(crate) fn check_axis(axis: u16) -> Result<(), Error> {
-    if (1..=180).contains(&axis) {
+    if limits::AXIS.contains(f64::from(axis)) {
         Ok(())
     } else {
-        Err(Error::new(
-            ErrorKind::OutOfRange {
-                typed: axis.to_string(),
-                limit: "1–180",
-                suggestions: vec![],
-            },
-            Field::Axis,
-            None,
-        ))
+        Err(range_error(Field::Axis, axis.to_string(), limits::AXIS))
     }
 }
 
@@ -72,14 +60,14 @@ impl Rx {
     /// use lensplane_core::Rx;
     /// assert!(Rx::new(-2.0, -1.0, 90).is_ok());
     /// assert_eq!(Rx::new(-2.0, -1.0, 0).unwrap_err().to_string(), "axis 0 is outside 1–180");
-    /// assert_eq!(Rx::new(-31.0, 0.0, 180).unwrap_err().to_string(), "sphere \u{2212}31.00 is outside ±30 D");
+    /// assert_eq!(Rx::new(-31.0, 0.0, 180).unwrap_err().to_string(), "sphere -31.00 is outside ±30 D");
     /// ```
     pub fn new(sphere: f64, cylinder: f64, axis: u16) -> Result<Rx, Error> {
-        if !sphere.is_finite() || sphere.abs() > SPHERE_LIMIT {
-            return Err(out_of_range(Field::Sphere, sphere));
+        if !limits::SPHERE.contains(sphere) {
+            return Err(out_of_range(Field::Sphere, sphere, limits::SPHERE));
         }
-        if !cylinder.is_finite() || cylinder.abs() > CYLINDER_LIMIT {
-            return Err(out_of_range(Field::Cylinder, cylinder));
+        if !limits::CYLINDER.contains(cylinder) {
+            return Err(out_of_range(Field::Cylinder, cylinder, limits::CYLINDER));
         }
         check_axis(axis)?;
         Ok(Rx::raw(sphere, cylinder, axis))
@@ -153,7 +141,7 @@ impl Rx {
     ///
     /// ```
     /// let rx = lensplane_core::Rx::new(2.0, 1.0, 170)?;
-    /// assert_eq!(rx.transpose().to_string(), "+3.00 -1.00 ×80");
+    /// assert_eq!(rx.transpose().to_string(), "+3.00 -1.00 ×080");
     /// # Ok::<(), lensplane_core::Error>(())
     /// ```
     pub fn transpose(&self) -> Rx {
@@ -182,7 +170,7 @@ impl Rx {
     ///
     /// ```
     /// let rx = lensplane_core::Rx::new(-2.0, -1.0, 180)?;
-    /// assert_eq!(rx.to_plus_cyl().to_string(), "-3.00 +1.00 ×90");
+    /// assert_eq!(rx.to_plus_cyl().to_string(), "-3.00 +1.00 ×090");
     /// # Ok::<(), lensplane_core::Error>(())
     /// ```
     pub fn to_plus_cyl(&self) -> Rx {

@@ -3,7 +3,6 @@
 //! uncorrected (a power-vector difference, so a rotated axis counts as the
 //! obliquely crossed cylinder it is).
 
-
 use crate::error::{Error, ErrorKind, Field};
 use crate::rounding::{Ladder, TieRule};
 use crate::{PowerVector, Rx};
@@ -118,7 +117,7 @@ pub struct ToricChoice {
 /// use lensplane_core::{choose_toric, Ladder, Rx, TieRule, ToricSettings};
 /// let exact = Rx::new(-3.0, -1.10, 23)?;
 /// let t = choose_toric(&exact, &ToricSettings::default(), &Ladder::CONTACT_LENS, TieRule::TowardPlus)?.unwrap();
-/// assert_eq!(t.ordered.to_string(), "-3.00 -1.25 ×20");
+/// assert_eq!(t.ordered.to_string(), "-3.00 -1.25 ×020");
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
 pub fn choose_toric(

@@ -2,13 +2,12 @@
 //! mm, reading distances in cm (or inches), ages in years, adds in dioptres.
 //! Formulas take metres; the conversion happens here and nowhere else.
 
-
 use crate::error::{Error, ErrorKind, Field};
-use crate::format::{fmt_number, prose_power};
-use crate::limits::{ADD_MAX, AGE_YEARS, CM_PER_INCH, READING_CM, VERTEX_MAX_MM};
+use crate::format::{fmt_length, fmt_power};
+use crate::limits::{self, Limit, CM_PER_INCH};
 
 /// A value outside its hard limit, with no suggested reading.
-pub(crate) fn range_error(field: Field, typed: String, limit: &'static str) -> Error {
+pub(crate) fn range_error(field: Field, typed: String, limit: Limit) -> Error {
     Error::new(
         ErrorKind::OutOfRange {
             typed,
@@ -20,10 +19,13 @@ pub(crate) fn range_error(field: Field, typed: String, limit: &'static str) -> E
     )
 }
 
-fn trim_number(x: f64) -> String {
-    let s = fmt_number(x);
-    let s = s.trim_end_matches('0').trim_end_matches('.');
-    s.to_string()
+/// A typed figure for a range message: trimmed, or "(not a number)".
+fn typed_figure(x: f64, unit: &str) -> String {
+    if x.is_finite() {
+        format!("{}{unit}", fmt_length(x))
+    } else {
+        "(not a number)".into()
+    }
 }
 
 /// Distance from the back of a lens to the corneal vertex, 0–30 mm.
@@ -55,15 +57,10 @@ impl VertexDistance {
     /// assert!(lensplane_core::VertexDistance::from_mm(-1.0).is_err());
     /// ```
     pub fn from_mm(mm: f64) -> Result<VertexDistance, Error> {
-        if mm.is_finite() && (0.0..=VERTEX_MAX_MM).contains(&mm) {
+        if limits::VERTEX.contains(mm) {
             Ok(VertexDistance { mm: mm + 0.0 })
         } else {
-            let typed = if mm.is_finite() {
-                trim_number(mm)
-            } else {
-                "(not a number)".into()
-            };
-            Err(range_error(Field::VertexFrom, format!("{typed} mm"), "0–30 mm"))
+            Err(range_error(Field::VertexFrom, typed_figure(mm, " mm"), limits::VERTEX))
         }
     }
 
@@ -96,8 +93,6 @@ impl VertexDistance {
     }
 }
 
-
-
 /// Reading (near working) distance, 10–100 cm. Typed in cm or inches; held
 /// in cm.
 ///
@@ -120,15 +115,14 @@ impl ReadingDistance {
     ///            "reading distance 120 cm is outside 10–100 cm");
     /// ```
     pub fn from_cm(cm: f64) -> Result<ReadingDistance, Error> {
-        if cm.is_finite() && (READING_CM.0..=READING_CM.1).contains(&cm) {
+        if limits::READING.contains(cm) {
             Ok(ReadingDistance { cm })
         } else {
-            let typed = if cm.is_finite() {
-                trim_number(cm)
-            } else {
-                "(not a number)".into()
-            };
-            Err(range_error(Field::ReadingDistance, format!("{typed} cm"), "10–100 cm"))
+            Err(range_error(
+                Field::ReadingDistance,
+                typed_figure(cm, " cm"),
+                limits::READING,
+            ))
         }
     }
 
@@ -182,8 +176,6 @@ impl ReadingDistance {
     }
 }
 
-
-
 /// Where the reading distance was measured from. At 40 cm and 12 mm the two
 /// differ by about 0.07 D at the eye.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Default)]
@@ -213,10 +205,10 @@ impl Age {
     /// assert!(lensplane_core::Age::new(111).is_err());
     /// ```
     pub fn new(years: u8) -> Result<Age, Error> {
-        if (AGE_YEARS.0..=AGE_YEARS.1).contains(&years) {
+        if limits::AGE.contains(f64::from(years)) {
             Ok(Age(years))
         } else {
-            Err(range_error(Field::Age, years.to_string(), "1–110"))
+            Err(range_error(Field::Age, years.to_string(), limits::AGE))
         }
     }
 
@@ -230,8 +222,6 @@ impl Age {
         self.0
     }
 }
-
-
 
 /// A near addition: always plus, 0.00 to +4.00 D (0 = no add). Adds above
 /// +4.00 (low-vision work) are outside this tool's scope.
@@ -257,13 +247,13 @@ impl Add {
     /// ```
     pub fn new(dioptres: f64) -> Result<Add, Error> {
         if !dioptres.is_finite() {
-            return Err(range_error(Field::Add, "(not a number)".into(), "0.00 to +4.00"));
+            return Err(range_error(Field::Add, typed_figure(dioptres, ""), limits::ADD));
         }
         if dioptres < 0.0 {
             return Err(Error::new(ErrorKind::AddNotPlus, Field::Add, None));
         }
-        if dioptres > ADD_MAX {
-            return Err(range_error(Field::Add, prose_power(dioptres), "0.00 to +4.00"));
+        if !limits::ADD.contains(dioptres) {
+            return Err(range_error(Field::Add, fmt_power(dioptres), limits::ADD));
         }
         Ok(Add(dioptres + 0.0))
     }
@@ -277,8 +267,6 @@ impl Add {
         self.0
     }
 }
-
-
 
 /// Which eye.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]

@@ -2,7 +2,6 @@
 //! an application of Fourier analysis to the description and statistical
 //! analysis of refractive error", Optom Vis Sci 1997;74(6):367–375.
 
-
 use crate::Rx;
 
 /// A prescription as a vector: M = S + C/2, J0 = −(C/2)·cos 2α,

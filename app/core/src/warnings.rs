@@ -1,10 +1,10 @@
-//! Validation as data: sanity warnings returned with results, and the
-//! standing cautions, so the UI shows them without logic of its own.
-
+//! Validation as data: sanity warnings returned with results, each tied to
+//! a field, so the UI shows them without logic of its own. The standing
+//! cautions of a page are in `cautions.rs`.
 
 use crate::error::Field;
-use crate::format::{fmt_number, fmt_power};
-use crate::limits::{CYLINDER_WARN, MEASURE_VERTEX_ABOVE, SPHERE_WARN, VERTEX_MAX_MM, VERTEX_USUAL_MM};
+use crate::format::{fmt_length, fmt_number, fmt_power};
+use crate::limits::{self, CYLINDER_WARN, MEASURE_VERTEX, SPHERE_WARN, VERTEX_USUAL};
 use crate::rounding::{is_on_step, round_to_step, TieRule};
 use crate::{compensate_power, Rx, VertexDistance};
 
@@ -38,30 +38,31 @@ pub enum WarningKind {
     OutsideStock,
     /// A cylinder beyond the largest available toric cylinder.
     BeyondToricRange,
-    /// Multifocal contact-lens "add" labels are not optical adds.
-    MultifocalLabels,
-    /// Amplitude by age is a population estimate.
-    PopulationEstimate,
     /// Age where the age formulas are least reliable.
     AmplitudeUnreliable,
     /// The spectacle add is far from the tentative add for the age.
     AddDiffersFromAge,
-    /// Trial the add at the real reading distance.
-    TrialAtDistance,
 }
-
-/// The standing cautions, for the UI to show with every panel.
-pub const CAUTIONS: [&str; 6] = [
-    "Results are starting points, not a prescription: confirm by over-refraction and acuity.",
-    "Powers are referred to the corneal vertex (thin-lens model): no tear lens, rigid-lens astigmatism, flexure or toric rotation.",
-    "Measure the vertex distance when any meridian exceeds about ±4 D.",
-    "Myopic presbyopes moving to contact lenses need more accommodation and convergence; hyperopes less.",
-    "Screening staff refer, not diagnose. Store no patient identifiers.",
-    "Defer to local regulations and licensed practice.",
-];
 
 pub(crate) fn warn(kind: WarningKind, field: Field, message: String) -> Warning {
     Warning { kind, field, message }
+}
+
+/// The one wording for a power between quarter steps, for a notice at the
+/// field or a warning beside a result: `None` when `value` is on a step.
+///
+/// ```text
+/// sphere -2.30 is between quarter steps; nearest -2.25
+/// ```
+pub(crate) fn off_step(field: Field, value: f64) -> Option<String> {
+    (!is_on_step(value, 0.25)).then(|| {
+        format!(
+            "{} {} is between quarter steps; nearest {}",
+            field.noun(),
+            fmt_power(value),
+            fmt_power(round_to_step(value, 0.25, TieRule::default()))
+        )
+    })
 }
 
 /// Warnings about a prescription as entered: off-step, very high powers.
@@ -75,38 +76,30 @@ pub(crate) fn warn(kind: WarningKind, field: Field, message: String) -> Warning 
 /// ```
 pub fn rx_warnings(rx: &Rx) -> Vec<Warning> {
     let mut out = vec![];
-    for (value, field, noun) in [
-        (rx.sphere(), Field::Sphere, "sphere"),
-        (rx.cylinder(), Field::Cylinder, "cylinder"),
-    ] {
-        if !is_on_step(value, 0.25) {
-            out.push(warn(
-                WarningKind::OffStep,
-                field,
-                format!(
-                    "{noun} {} is between quarter steps; nearest {}",
-                    fmt_power(value),
-                    fmt_power(round_to_step(value, 0.25, TieRule::default()))
-                ),
-            ));
+    for (value, field) in [(rx.sphere(), Field::Sphere), (rx.cylinder(), Field::Cylinder)] {
+        if let Some(message) = off_step(field, value) {
+            out.push(warn(WarningKind::OffStep, field, message));
         }
     }
     let strongest = strongest_meridian(rx);
-    if strongest.abs() > SPHERE_WARN {
+    if SPHERE_WARN.exceeded_by(strongest) {
         out.push(warn(
             WarningKind::HighPower,
             Field::Sphere,
             format!(
-                "a meridian of {} is beyond ±20 D: check the entry",
+                "a meridian of {} is beyond {SPHERE_WARN}: check the entry",
                 fmt_power(strongest)
             ),
         ));
     }
-    if rx.cylinder().abs() > CYLINDER_WARN {
+    if CYLINDER_WARN.exceeded_by(rx.cylinder()) {
         out.push(warn(
             WarningKind::HighCylinder,
             Field::Cylinder,
-            format!("cylinder {} is above 6 D: check the entry", fmt_power(rx.cylinder())),
+            format!(
+                "cylinder {} is above {CYLINDER_WARN}: check the entry",
+                fmt_power(rx.cylinder())
+            ),
         ));
     }
     out
@@ -135,13 +128,13 @@ pub(crate) fn strongest_meridian(rx: &Rx) -> f64 {
 pub fn vertex_warnings(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Vec<Warning> {
     let mut out = vec![];
     for (d, field) in [(from, Field::VertexFrom), (to, Field::VertexTo)] {
-        if !d.is_cornea() && !(VERTEX_USUAL_MM.0..=VERTEX_USUAL_MM.1).contains(&d.mm()) {
+        if !d.is_cornea() && !VERTEX_USUAL.contains(d.mm()) {
             out.push(warn(
                 WarningKind::UnusualVertex,
                 field,
                 format!(
-                    "vertex distance {} mm is unusual for spectacles (usually 8–20 mm): check it",
-                    trim(d.mm())
+                    "vertex distance {} mm is unusual for spectacles (usually {VERTEX_USUAL}): check it",
+                    fmt_length(d.mm())
                 ),
             ));
         }
@@ -150,10 +143,10 @@ pub fn vertex_warnings(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Vec
         return out;
     }
     let strongest = strongest_meridian(rx);
-    if strongest.abs() > MEASURE_VERTEX_ABOVE {
+    if MEASURE_VERTEX.exceeded_by(strongest) {
         // What a 2 mm error in the spectacle vertex distance would change.
         let spectacle = if from.is_cornea() { to } else { from };
-        let shifted_mm = if spectacle.mm() + 2.0 <= VERTEX_MAX_MM {
+        let shifted_mm = if spectacle.mm() + 2.0 <= limits::VERTEX.max {
             spectacle.mm() + 2.0
         } else {
             spectacle.mm() - 2.0
@@ -182,7 +175,7 @@ pub fn vertex_warnings(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Vec
                 Field::VertexFrom
             },
             format!(
-                "a meridian of {} is beyond ±4 D: measure the vertex distance{tail}",
+                "a meridian of {} is beyond {MEASURE_VERTEX}: measure the vertex distance{tail}",
                 fmt_power(strongest)
             ),
         ));
@@ -205,9 +198,4 @@ pub fn vertex_warnings(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Vec
         ));
     }
     out
-}
-
-fn trim(x: f64) -> String {
-    let s = fmt_number(x);
-    s.trim_end_matches('0').trim_end_matches('.').to_string()
 }

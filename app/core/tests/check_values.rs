@@ -85,14 +85,14 @@ fn v_extra_plus_10_at_12mm() {
 #[test]
 fn c1_minus_8_minus_2_x180() {
     // C1 [textbook]: −8.00 −2.00 ×180 @ 12 mm: meridians −7.2993 / −8.9286
-    // → −7.30 −1.63 ×180 (plus form −8.93 +1.63 ×90)
+    // → −7.30 −1.63 ×180 (plus form −8.93 +1.63 ×090)
     let rx = Rx::new(-8.0, -2.0, 180).unwrap();
     let cl = compensate(&rx, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
     let m = cl.meridians();
     close(m.first().power, -7.2993, "C1 meridian 180");
     close(m.second().power, -8.9286, "C1 meridian 90");
     assert_eq!(cl.to_string(), "-7.30 -1.63 ×180");
-    assert_eq!(cl.to_plus_cyl().to_string(), "-8.93 +1.63 ×90");
+    assert_eq!(cl.to_plus_cyl().to_string(), "-8.93 +1.63 ×090");
 }
 
 #[test]
@@ -116,12 +116,12 @@ fn c1_trap_compensating_the_cylinder_alone_is_wrong() {
 
 #[test]
 fn c2_plus_6_minus_2_x90() {
-    // C2 [textbook]: +6.00 −2.00 ×90 @ 12 mm: +6.4655 / +4.2017 → +6.47 −2.26 ×90
+    // C2 [textbook]: +6.00 −2.00 ×090 @ 12 mm: +6.4655 / +4.2017 → +6.47 −2.26 ×090
     let rx = Rx::new(6.0, -2.0, 90).unwrap();
     let cl = compensate(&rx, VertexDistance::SPECTACLES, VertexDistance::CORNEA).unwrap();
     close(cl.meridians().first().power, 6.4655, "C2 meridian 90");
     close(cl.meridians().second().power, 4.2017, "C2 meridian 180");
-    assert_eq!(cl.to_string(), "+6.47 -2.26 ×90");
+    assert_eq!(cl.to_string(), "+6.47 -2.26 ×090");
 }
 
 #[test]
@@ -285,22 +285,22 @@ fn d1_demand() {
 
 #[test]
 fn s1_spherical_equivalent() {
-    // S1 [definition]: SE of −2.00 −0.50 ×90 → −2.25; +1.50 −1.00 ×180 → +1.00
+    // S1 [definition]: SE of −2.00 −0.50 ×090 → −2.25; +1.50 −1.00 ×180 → +1.00
     assert_eq!(Rx::new(-2.0, -0.5, 90).unwrap().spherical_equivalent(), -2.25);
     assert_eq!(Rx::new(1.5, -1.0, 180).unwrap().spherical_equivalent(), 1.0);
 }
 
 #[test]
 fn t1_transposition() {
-    // T1 [definition]: −2.00 −1.00 ×180 → −3.00 +1.00 ×90;
-    // +2.00 +1.00 ×170 → +3.00 −1.00 ×80
+    // T1 [definition]: −2.00 −1.00 ×180 → −3.00 +1.00 ×090;
+    // +2.00 +1.00 ×170 → +3.00 −1.00 ×080
     assert_eq!(
         Rx::new(-2.0, -1.0, 180).unwrap().transpose().to_string(),
-        "-3.00 +1.00 ×90"
+        "-3.00 +1.00 ×090"
     );
     assert_eq!(
         Rx::new(2.0, 1.0, 170).unwrap().transpose().to_string(),
-        "+3.00 -1.00 ×80"
+        "+3.00 -1.00 ×080"
     );
 }
 
@@ -334,7 +334,7 @@ fn toric_defaults() {
 fn power_vector_definitions() {
     // [published] Thibos, Wheeler & Horner, Optom Vis Sci 1997:
     // M = S + C/2, J0 = −(C/2)cos 2α, J45 = −(C/2)sin 2α.
-    // −1.00 −2.00 ×45: M = −2.00, J0 = 0, J45 = +1.00; B = √5.
+    // −1.00 −2.00 ×045: M = −2.00, J0 = 0, J45 = +1.00; B = √5.
     let v = Rx::new(-1.0, -2.0, 45).unwrap().power_vector();
     close(v.m, -2.0, "M");
     close(v.j0, 0.0, "J0");

@@ -46,9 +46,19 @@ fn d3_display_rounding_and_notation() {
         "-2.00 DS"
     );
     assert_eq!(Rx::sphere_only(0.0).unwrap().to_string(), "plano");
-    assert_eq!(Rx::new(1.0, -0.25, 5).unwrap().to_string(), "+1.00 -0.25 ×5");
+    // Axes with three digits (common practice, no source): 5 cannot be misread as 50.
+    assert_eq!(Rx::new(1.0, -0.25, 5).unwrap().to_string(), "+1.00 -0.25 ×005");
+    assert_eq!(Rx::new(1.0, -0.25, 90).unwrap().to_string(), "+1.00 -0.25 ×090");
+    // One minus style everywhere, figures and prose: the ASCII hyphen-minus.
     assert!(!Rx::new(-1.0, -0.25, 5).unwrap().to_string().contains('\u{2212}'));
-    assert!(parse_rx("2 -1 x 9").unwrap_err().to_string().contains('\u{2212}'));
+    assert_eq!(
+        parse_rx("2 -1 x 9").unwrap_err().to_string(),
+        "sphere needs a sign: +2.00 or -2.00?"
+    );
+    assert_eq!(
+        parse_rx("\u{2212}250").unwrap_err().to_string(),
+        "sphere -250 is outside ±30 D: did you mean -2.50?"
+    );
 }
 
 #[test]

@@ -23,7 +23,7 @@ fn minus_look_alikes_are_minus_and_echoed() {
 #[test]
 fn comma_decimals() {
     assert_eq!(reads("-2,50", "-2.50 DS"), vec![NoticeKind::CommaDecimal]);
-    reads("-2,50 -0,75 x 90", "-2.50 -0.75 ×90");
+    reads("-2,50 -0,75 x 90", "-2.50 -0.75 ×090");
     reads("-2.00, -1.00, 180", "-2.00 -1.00 ×180");
 }
 
@@ -32,8 +32,8 @@ fn plano_forms() {
     for text in ["pl", "plano", "PLANO", "0", "±0.00", "0.00", "+0.00", "-0.00", "pl DS"] {
         reads(text, "plano");
     }
-    reads("pl -0.50 x 90", "plano -0.50 ×90");
-    reads("0.00 -0.50 x 90", "plano -0.50 ×90");
+    reads("pl -0.50 x 90", "plano -0.50 ×090");
+    reads("0.00 -0.50 x 90", "plano -0.50 ×090");
 }
 
 #[test]
@@ -71,8 +71,8 @@ fn axis_markers() {
             "no notice expected for {text:?}"
         );
     }
-    reads("+1.50 -0.75 x005", "+1.50 -0.75 ×5");
-    reads("+1.50 -0.75 x 5", "+1.50 -0.75 ×5");
+    reads("+1.50 -0.75 x005", "+1.50 -0.75 ×005");
+    reads("+1.50 -0.75 x 5", "+1.50 -0.75 ×005");
 }
 
 #[test]
@@ -94,7 +94,7 @@ fn axis_zero_is_stored_as_180_and_said() {
 #[test]
 fn off_step_is_accepted_with_the_rounded_value() {
     let p = parse_rx("-2.30 -0.80 x 12").unwrap();
-    assert_eq!(p.value.to_string(), "-2.30 -0.80 ×12");
+    assert_eq!(p.value.to_string(), "-2.30 -0.80 ×012");
     let msgs: Vec<_> = p.notices.iter().map(|n| n.message.as_str()).collect();
     assert_eq!(
         msgs,
@@ -107,7 +107,7 @@ fn off_step_is_accepted_with_the_rounded_value() {
 
 #[test]
 fn plus_cylinder_form_is_kept() {
-    reads("-3.00 +1.00 x 90", "-3.00 +1.00 ×90");
+    reads("-3.00 +1.00 x 90", "-3.00 +1.00 ×090");
 }
 
 #[test]
@@ -120,7 +120,7 @@ fn zero_cylinder_needs_no_axis_and_ignores_one() {
 fn fullwidth_input_from_an_ime() {
     reads(
         "\u{FF0D}\u{FF12}\u{FF0E}\u{FF10}\u{FF10} \u{FF0D}\u{FF11} \u{D7}\u{FF19}\u{FF10}",
-        "-2.00 -1.00 ×90",
+        "-2.00 -1.00 ×090",
     );
 }
 
@@ -131,7 +131,7 @@ fn three_field_entry() {
     let p = Rx::from_fields("+6", "", "").unwrap();
     assert_eq!(p.value.to_string(), "+6.00 DS");
     let p = Rx::from_fields("pl", "+0.50", "90°").unwrap();
-    assert_eq!(p.value.to_string(), "plano +0.50 ×90");
+    assert_eq!(p.value.to_string(), "plano +0.50 ×090");
     let p = Rx::from_fields("-1", "-0.5", "0").unwrap();
     assert_eq!(p.value.axis(), 180);
     assert_eq!(p.notices[0].kind, NoticeKind::AxisZero);

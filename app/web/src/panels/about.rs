@@ -24,8 +24,7 @@ pub fn AboutPanel() -> impl IntoView {
             <h2 id="about-cautions">"Cautions"</h2>
             <p class="important">"Lensplane's results are not a prescription. They are starting points for a licensed practitioner, to be confirmed by over-refraction, acuity and trial. Practice follows local regulations."</p>
             <ul>
-                {lensplane_core::CAUTIONS.iter().map(|c| view! { <li>{*c}</li> }).collect_view()}
-                <li>"Multifocal contact-lens \"add\" labels are not optical adds. Amplitude figures by age are population estimates."</li>
+                {lensplane_core::cautions().map(|c| view! { <li>{c.to_string()}</li> }).collect_view()}
             </ul>
         </section>
         <section class="prose" aria-labelledby="about-data">

@@ -151,9 +151,7 @@ pub fn EquivalentPanel() -> impl IntoView {
                 <EyeResults eyes=eyes id_prefix="equivalent" text=text request=request/>
             </div>
         </div>
-        <Cautions extra=vec![
-            "A spherical lens leaves the astigmatism shown uncorrected: check acuity with the lens on the eye.",
-        ]/>
+        <Cautions calculation=lensplane_core::Calculation::Equivalent/>
     }
 }
 
@@ -175,7 +173,7 @@ mod tests {
 
     #[test]
     fn card_shows_the_equivalent_and_the_verdict() {
-        // S1 of shared/optics-notes.md [definition]: SE of −2.00 −0.50 ×90 is −2.25 (same plane, 12 → 12 mm).
+        // S1 of shared/optics-notes.md [definition]: SE of −2.00 −0.50 ×090 is −2.25 (same plane, 12 → 12 mm).
         let card = equivalent_card(&report(Rx::new(-2.0, -0.5, 90).unwrap(), VertexDistance::SPECTACLES));
         assert_eq!(card.main_value, "-2.25");
         assert!(card.rows.iter().any(|r| r.value == "-2.25 DS"));

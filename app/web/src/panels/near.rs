@@ -12,7 +12,7 @@ use crate::widgets::{Card, Cautions, EyeEntryForm, Message, PlaneInputs, Planes,
 use lensplane_core::{
     fmt_dioptres, fmt_length, fmt_number, fmt_power, near_report, parse_add, parse_age, parse_reading_distance,
     parse_reading_inches, Add, Age, Error, Measured, NearFigures, NearInput, NearReport, Notice, OrderSettings, Parsed,
-    ReadingDistance, StepKind, TentativeAdd, WarningKind,
+    ReadingDistance, StepKind, TentativeAdd,
 };
 use leptos::prelude::*;
 
@@ -159,14 +159,6 @@ fn tentative_row(label: &str, t: &TentativeAdd, entered: f64) -> Row {
     )
 }
 
-/// Warnings shown once for the panel (in the cautions), not in every card.
-fn panel_wide(kind: WarningKind) -> bool {
-    matches!(
-        kind,
-        WarningKind::MultifocalLabels | WarningKind::TrialAtDistance | WarningKind::PopulationEstimate
-    )
-}
-
 /// The near result of one eye as a card.
 pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
     let target = plane_words(input.target);
@@ -272,12 +264,7 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
         main_value,
         reason: format!("{} with {with}: {}.", r.input, r.summary),
         rows,
-        warnings: r
-            .warnings
-            .iter()
-            .filter(|w| !panel_wide(w.kind))
-            .map(|w| w.message.clone())
-            .collect(),
+        warnings: r.warnings.iter().map(|w| w.message.clone()).collect(),
         cross: None,
     }
 }
@@ -431,12 +418,7 @@ pub fn NearPanel() -> impl IntoView {
                 <EyeResults eyes=eyes id_prefix="near" text=text request=request/>
             </div>
         </div>
-        <Cautions extra=vec![
-            "Multifocal contact-lens \"add\" labels are not optical adds: fit by the maker's guide and trial.",
-            "Amplitude by age (Hofstetter) is a population estimate: refine with the patient's measured amplitude.",
-            "Trial the add at the patient's real reading distance before ordering.",
-            "Accommodation is referred to the corneal vertex; the reading distance is taken from the plane chosen above.",
-        ]/>
+        <Cautions calculation=lensplane_core::Calculation::Near/>
     }
 }
 

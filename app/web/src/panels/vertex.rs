@@ -142,7 +142,7 @@ pub fn VertexPanel() -> impl IntoView {
                 <EyeResults eyes=eyes id_prefix="vertex" text=text request=request/>
             </div>
         </div>
-        <Cautions/>
+        <Cautions calculation=lensplane_core::Calculation::Vertex/>
     }
 }
 
@@ -163,10 +163,10 @@ mod tests {
 
     #[test]
     fn card_shows_exact_in_either_cylinder_form() {
-        // C1 of shared/optics-notes.md [textbook]: −8.00 −2.00 ×180 at 12 mm → −7.30 −1.63 ×180 (plus form −8.93 +1.63 ×90).
+        // C1 of shared/optics-notes.md [textbook]: −8.00 −2.00 ×180 at 12 mm → −7.30 −1.63 ×180 (plus form −8.93 +1.63 ×090).
         let r = report(Rx::new(-8.0, -2.0, 180).unwrap());
         assert_eq!(vertex_card(&r, false).main_value, "-7.30 -1.63 ×180");
-        assert_eq!(vertex_card(&r, true).main_value, "-8.93 +1.63 ×90");
+        assert_eq!(vertex_card(&r, true).main_value, "-8.93 +1.63 ×090");
         assert_eq!(vertex_card(&r, false).main_label, "Exact at the cornea (contact lens)");
     }
 

@@ -32,15 +32,14 @@ impl Message {
     }
 }
 
-/// The standing cautions of a panel, with the core's cautions.
+/// The standing cautions of a calculation's page, as the core scopes them.
 #[component]
-pub fn Cautions(#[prop(optional)] extra: Vec<&'static str>) -> impl IntoView {
+pub fn Cautions(calculation: lensplane_core::Calculation) -> impl IntoView {
     view! {
         <aside class="cautions" aria-label="Cautions">
             <h2>"Before you order"</h2>
             <ul>
-                {extra.into_iter().map(|c| view! { <li>{c}</li> }).collect_view()}
-                {lensplane_core::CAUTIONS.iter().map(|c| view! { <li>{*c}</li> }).collect_view()}
+                {lensplane_core::cautions_for(calculation).map(|c| view! { <li>{c.to_string()}</li> }).collect_view()}
             </ul>
         </aside>
     }

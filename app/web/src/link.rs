@@ -147,7 +147,7 @@ impl Query {
     ///
     /// ```
     /// use lensplane_web::link::Query;
-    /// let q = Query::default().with("to", "0").with("r", "+2.00 -1.00 ×090");
+    /// let q = Query::default().with("to", "0").with("r", "+2.00 -1.00 ×90");
     /// assert_eq!(q.encode(&["r", "to"]), "r=%2B2.00%20-1.00%20%C3%9790&to=0");
     /// ```
     pub fn encode(&self, keys: &[&str]) -> String {

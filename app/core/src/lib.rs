@@ -52,6 +52,7 @@
 //! | vertex | [`compensate`], [`compensate_power`], [`effective_power`] | `vertex.rs` |
 //! | rounding, ladders, residuals | [`TieRule`], [`Ladder`], [`order_lens`], [`OrderSettings`] | `rounding.rs` |
 //! | toric contact lenses | [`choose_toric`], [`ToricSettings`] | `toric.rs` |
+//! | the one lens to order, and its alternatives | [`recommend`], [`Recommendation`] | `recommend.rs` |
 //! | spherical equivalent, substitutes | [`spherical_equivalent_at`], [`assess_substitute`] | `equivalent.rs` |
 //! | typed substitute limits | [`parse_cylinder_limit`], [`parse_ratio_limit`], [`SubstituteSettings::from_texts`] | `settings_text.rs` |
 //! | near | [`near_figures`], [`NearGeometry`] | `near.rs` |
@@ -150,6 +151,7 @@ pub mod limits;
 mod meridians;
 mod near;
 mod parse;
+mod recommend;
 mod report_equivalent;
 mod report_near;
 mod report_vertex;
@@ -177,6 +179,7 @@ pub use parse::{
     parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance, parse_reading_inches,
     parse_rx, parse_sphere_field, parse_vertex_mm, Notice, NoticeKind, Parsed,
 };
+pub use recommend::{recommend, Candidate, Leftover, LensKind, Recommendation};
 pub use report_equivalent::{equivalent_report, EquivalentInput, EquivalentReport};
 pub use report_near::{near_report, AmplitudeReport, NearInput, NearReport};
 pub use report_vertex::{vertex_report, LadderKind, VertexInput, VertexReport};

@@ -4,7 +4,9 @@ use crate::error::{Error, Field};
 use crate::format::fmt_power;
 use crate::rounding::{order_lens, round_to_step, OrderSettings, OrderedLens};
 use crate::warnings::{rx_warnings, vertex_warnings, warn, Warning, WarningKind};
-use crate::{choose_toric, compensate_meridians, PowerCross, Rx, ToricChoice, VertexDistance};
+use crate::{
+    choose_toric, compensate_meridians, recommend, PowerCross, Recommendation, Rx, ToricChoice, VertexDistance,
+};
 
 /// Which ladder the orderable values are on.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
@@ -63,6 +65,8 @@ pub struct VertexReport {
     /// cylinder there rounds to at least the smallest available toric
     /// cylinder.
     pub toric: Option<ToricChoice>,
+    /// The one lens to order at `to`, why, and the alternatives.
+    pub recommendation: Recommendation,
     /// One line in plain words.
     pub reason: String,
     /// Warnings, each tied to a field or result.
@@ -97,6 +101,7 @@ pub(crate) fn vertex_reason(rx: &Rx, shift_m: f64) -> String {
 /// assert_eq!(report.ordered.ordered.to_string(), "-7.50 -1.50 ×180");
 /// assert_eq!(report.reason, "moving a correction toward the eye needs more plus (less minus)");
 /// assert_eq!(report.toric.unwrap().ordered.to_string(), "-7.00 -1.75 ×180");
+/// assert_eq!(report.recommendation.order.lens.to_string(), "-7.00 -1.75 ×180");
 /// # Ok::<(), Error>(())
 /// ```
 pub fn vertex_report(input: &VertexInput) -> Result<VertexReport, Error> {
@@ -175,6 +180,7 @@ pub fn vertex_report(input: &VertexInput) -> Result<VertexReport, Error> {
         ordered_plus_cyl: ordered.ordered.to_plus_cyl(),
         ordered,
         toric,
+        recommendation: recommend(&exact, *to, settings)?,
         reason: vertex_reason(rx, from.metres() - to.metres()),
         warnings,
     })

@@ -287,7 +287,7 @@ test('export JSON and CSV as downloads; re-import skips duplicates; bad files ch
   // One row per eye: entries 0 and 2 have both eyes, entry 1 the right only.
   assert.equal(rows.length, 1 + 5);
   assert.equal(rows[0], 'date,time,panel,label,eye,entered,result,orderable');
-  assert.match(rows[1], /^\d{4}-\d{2}-\d{2},\d{2}:\d{2},Near,Room 2,R,-0\.50 -0\.50 ×10,/);
+  assert.match(rows[1], /^\d{4}-\d{2}-\d{2},\d{2}:\d{2},Near,Room 2,R,-0\.50 -0\.50 ×010,/);
 
   await page.getByRole('button', { name: 'Clear all…' }).click();
   await page.getByRole('button', { name: 'Delete all entries' }).click();

@@ -47,7 +47,7 @@
 //! | principal meridians | [`PowerCross`], [`Meridian`] | `meridians.rs` |
 //! | power vectors | [`PowerVector`] | `vectors.rs` |
 //! | decimal numbers in text (no std float parser: size) | [`read_decimal`] | `decimal.rs` |
-//! | parsing typed text | [`parse_rx`], [`Rx::from_fields`], [`parse_sphere_field`], [`parse_cylinder_field`], [`parse_axis_field`], [`parse_vertex_mm`], [`parse_reading_distance`], [`parse_reading_inches`], [`parse_add`], [`parse_age`] | `parse.rs`, `lex.rs` |
+//! | parsing typed text (a token cursor: `eat`, `peek`, `expect_end`) | [`parse_rx`], [`Rx::from_fields`], [`parse_sphere_field`], [`parse_cylinder_field`], [`parse_axis_field`], [`parse_vertex_mm`], [`parse_reading_distance`], [`parse_reading_inches`], [`parse_add`], [`parse_age`] | `parse.rs`, `lex.rs`, `cursor.rs` |
 //! | trade notation out | `Display for Rx`, [`fmt_axis`], [`fmt_power`], [`fmt_sphere`], [`fmt_number`], [`fmt_dioptres`], [`fmt_length`] | `format.rs` |
 //! | vertex | [`compensate`], [`compensate_power`], [`effective_power`] | `vertex.rs` |
 //! | rounding, ladders, residuals | [`TieRule`], [`Ladder`], [`order_lens`], [`OrderSettings`] | `rounding.rs` |
@@ -141,6 +141,7 @@
 
 mod amplitude;
 mod cautions;
+mod cursor;
 mod decimal;
 mod editing;
 mod equivalent;

@@ -6,6 +6,7 @@
 //! missing sign, a missing axis, an axis outside 1–180 or a number that looks
 //! like it lost its decimal point is an error that asks, never a guess.
 
+use crate::cursor::{unexpected, word, Cursor};
 use crate::error::{Error, ErrorKind, Field};
 use crate::format::{fmt_length, fmt_power};
 use crate::lex::{lex, Num, Sign, Tok, Token};
@@ -62,17 +63,6 @@ fn notice(kind: NoticeKind, field: Field, message: String) -> Notice {
     Notice { kind, field, message }
 }
 
-fn unexpected(t: &Token, field: Field) -> Error {
-    Error::new(ErrorKind::Unexpected { text: t.raw.clone() }, field, Some(t.start))
-}
-
-fn word(t: Option<&Token>) -> Option<&str> {
-    match t.map(|t| &t.tok) {
-        Some(Tok::Word(w)) => Some(w.as_str()),
-        _ => None,
-    }
-}
-
 fn is_plano(w: &str) -> bool {
     matches!(w, "pl" | "plano" | "pln")
 }
@@ -82,10 +72,13 @@ fn is_spherical_mark(w: &str) -> bool {
 fn is_cyl_label(w: &str) -> bool {
     matches!(w, "cyl" | "cylinder" | "dc" | "dcyl")
 }
-fn is_axis_mark(t: Option<&Token>) -> bool {
-    match t.map(|t| &t.tok) {
-        Some(Tok::At) => true,
-        Some(Tok::Word(w)) => matches!(w.as_str(), "x" | "ax" | "axis"),
+fn is_sphere_label(w: &str) -> bool {
+    matches!(w, "sph" | "sphere")
+}
+fn is_axis_mark(t: &Tok) -> bool {
+    match t {
+        Tok::At => true,
+        Tok::Word(w) => matches!(w.as_str(), "x" | "ax" | "axis"),
         _ => false,
     }
 }
@@ -243,130 +236,110 @@ fn axis(t: &Token, num: &Num) -> Result<(u16, Vec<Notice>), Error> {
 /// ```
 pub fn parse_rx(text: &str) -> Result<Parsed<Rx>, Error> {
     let toks = lex(text, Field::Rx)?;
-    let toks = toks.as_slice();
-    if toks.is_empty() {
+    let mut c = Cursor::new(&toks);
+    let mut notices = Vec::new();
+    if c.at_end() {
         return Err(Error::new(ErrorKind::Empty, Field::Rx, None));
     }
-    let mut i = 0;
-    let mut notices = Vec::new();
-    // An optional label: "sph -2.00 …".
-    if word(toks.first()).is_some_and(|w| matches!(w, "sph" | "sphere"))
-        && matches!(toks.get(1).map(|t| &t.tok), Some(Tok::Num(_)))
-    {
-        i = 1;
+    c.eat_label(is_sphere_label); // "sph -2.00 …"
+    if let Some(t) = c.eat(|t| matches!(t, Tok::At)) {
+        return Err(Error::new(ErrorKind::AxisNeedsCylinder, Field::Axis, Some(t.start)));
+        // "@90"
     }
-    // Sphere.
-    let sphere_tok = &toks[i];
-    let sphere = match &sphere_tok.tok {
-        Tok::Num(n) => {
-            let (v, mut n) = power(sphere_tok, n, Role::Sphere)?;
-            notices.append(&mut n);
+    let sphere = sphere_part(&mut c, &mut notices)?; // "-2.00", "pl"
+    if c.eat_word(is_spherical_mark) {
+        c.expect_end(Field::Rx)?; // "-2.00 DS", "-3.75 sph"
+        return spherical(sphere, notices);
+    }
+    c.eat_word(|w| w == "d"); // "-6 D"
+    c.eat_separator(); // "-2.00/-1.00…", "-2.00, -1.00…"
+    c.eat_label(is_cyl_label); // "… cyl -1.00"
+    if c.at_end() {
+        return spherical(sphere, notices); // "-2.00"
+    }
+    if let Some(t) = c.peek().filter(|t| is_axis_mark(&t.tok)) {
+        return Err(Error::new(ErrorKind::AxisNeedsCylinder, Field::Axis, Some(t.start)));
+        // "-2.00 x90"
+    }
+    let cyl_start = c.peek().map(|t| t.start);
+    let cylinder = match c.eat_number() {
+        Some((t, n)) => power(t, n, Role::Cylinder).map(|(v, n)| {
+            notices.extend(n);
             v
+        })?,
+        None => {
+            return Err(c
+                .peek()
+                .map(|t| unexpected(t, Field::Cylinder))
+                .unwrap_or_else(empty_rx))
         }
-        Tok::Word(w) if is_plano(w) => 0.0,
-        Tok::At => {
-            return Err(Error::new(
-                ErrorKind::AxisNeedsCylinder,
-                Field::Axis,
-                Some(sphere_tok.start),
-            ))
-        }
-        _ => return Err(unexpected(sphere_tok, Field::Sphere)),
     };
-    i += 1;
-    // "DS", "sph", "D.S." or "D" after the sphere.
-    if let Some(w) = word(toks.get(i)) {
-        if is_spherical_mark(w) {
-            return match toks.get(i + 1) {
-                None => Ok(Parsed {
-                    value: Rx::new(sphere, 0.0, 180)?,
-                    notices,
-                }),
-                Some(t) => Err(unexpected(t, Field::Rx)),
-            };
+    c.eat_word(|w| w == "d" || is_cyl_label(w)); // "-1.00 D", "-1.00 DC"
+    c.eat_separator(); // "…/-1.00/180"
+    let axis = axis_part(&mut c, &mut notices)?; // "x180", "@ 5", "ax 180", "180°", bare "180"
+    c.expect_end(Field::Rx)?;
+    finish(sphere, cylinder, axis, notices, cyl_start)
+}
+
+fn empty_rx() -> Error {
+    Error::new(ErrorKind::Empty, Field::Rx, None)
+}
+
+fn spherical(sphere: f64, notices: Vec<Notice>) -> Result<Parsed<Rx>, Error> {
+    Ok(Parsed {
+        value: Rx::new(sphere, 0.0, 180)?,
+        notices,
+    })
+}
+
+/// The sphere of a prescription: a signed power or a word for plano.
+fn sphere_part(c: &mut Cursor, notices: &mut Vec<Notice>) -> Result<f64, Error> {
+    if let Some((t, n)) = c.eat_number() {
+        let (v, n) = power(t, n, Role::Sphere)?;
+        notices.extend(n);
+        return Ok(v);
+    }
+    if c.eat_word(is_plano) {
+        return Ok(0.0);
+    }
+    Err(c.peek().map(|t| unexpected(t, Field::Sphere)).unwrap_or_else(empty_rx))
+}
+
+/// The axis after a cylinder: marked (`x`, `@`, `ax`), or a bare number
+/// (read with a notice unless a degree sign follows); `None` when nothing
+/// is left.
+fn axis_part(c: &mut Cursor, notices: &mut Vec<Notice>) -> Result<Option<u16>, Error> {
+    let Some(first) = c.peek() else { return Ok(None) };
+    let value = if c.eat(is_axis_mark).is_some() {
+        match c.next() {
+            Some(at @ Token { tok: Tok::Num(n), .. }) => {
+                let (a, more) = axis(at, n)?;
+                notices.extend(more);
+                a
+            }
+            Some(other) => return Err(unexpected(other, Field::Axis)),
+            None => return Err(Error::new(ErrorKind::CylinderNeedsAxis, Field::Axis, Some(first.start))),
         }
-        if w == "d" {
-            i += 1;
-        }
-    }
-    if matches!(toks.get(i).map(|t| &t.tok), Some(Tok::Slash | Tok::Comma)) {
-        i += 1;
-    }
-    if word(toks.get(i)).is_some_and(is_cyl_label) && matches!(toks.get(i + 1).map(|t| &t.tok), Some(Tok::Num(_))) {
-        i += 1;
-    }
-    let Some(cyl_tok) = toks.get(i) else {
-        return Ok(Parsed {
-            value: Rx::new(sphere, 0.0, 180)?,
-            notices,
-        });
-    };
-    if is_axis_mark(Some(cyl_tok)) {
-        return Err(Error::new(
-            ErrorKind::AxisNeedsCylinder,
-            Field::Axis,
-            Some(cyl_tok.start),
-        ));
-    }
-    let cylinder = match &cyl_tok.tok {
-        Tok::Num(n) => {
-            let (v, mut n) = power(cyl_tok, n, Role::Cylinder)?;
-            notices.append(&mut n);
-            v
-        }
-        _ => return Err(unexpected(cyl_tok, Field::Cylinder)),
-    };
-    i += 1;
-    if word(toks.get(i)).is_some_and(|w| w == "d" || is_cyl_label(w)) {
-        i += 1;
-    }
-    if matches!(toks.get(i).map(|t| &t.tok), Some(Tok::Slash | Tok::Comma)) {
-        i += 1;
-    }
-    let mut axis_value = None;
-    if let Some(t) = toks.get(i) {
-        if is_axis_mark(Some(t)) {
-            i += 1;
-            match toks.get(i) {
-                Some(at @ Token { tok: Tok::Num(n), .. }) => {
-                    let (a, mut n) = axis(at, n)?;
-                    notices.append(&mut n);
-                    axis_value = Some(a);
-                    i += 1;
-                }
-                Some(other) => return Err(unexpected(other, Field::Axis)),
-                None => return Err(Error::new(ErrorKind::CylinderNeedsAxis, Field::Axis, Some(t.start))),
-            }
-        } else if let Tok::Num(n) = &t.tok {
-            if n.sign != Sign::None && n.sign != Sign::Minus {
-                return Err(unexpected(t, Field::Axis));
-            }
-            if n.sign == Sign::Minus && n.frac.is_some() {
-                return Err(unexpected(t, Field::Axis));
-            }
-            let (a, mut more) = axis(t, n)?;
-            let degree = matches!(toks.get(i + 1).map(|t| &t.tok), Some(Tok::Degree));
-            if !degree {
-                notices.push(notice(
-                    NoticeKind::BareAxis,
-                    Field::Axis,
-                    format!("read {} as the axis", n.int),
-                ));
-            }
-            notices.append(&mut more);
-            axis_value = Some(a);
-            i += 1;
-        } else {
+    } else if let Some((t, n)) = c.eat_number() {
+        let signed_fraction = n.sign == Sign::Minus && n.frac.is_some();
+        if !matches!(n.sign, Sign::None | Sign::Minus) || signed_fraction {
             return Err(unexpected(t, Field::Axis));
         }
-        if matches!(toks.get(i).map(|t| &t.tok), Some(Tok::Degree)) {
-            i += 1;
+        let (a, more) = axis(t, n)?;
+        if !matches!(c.peek().map(|t| &t.tok), Some(Tok::Degree)) {
+            notices.push(notice(
+                NoticeKind::BareAxis,
+                Field::Axis,
+                format!("read {} as the axis", n.int),
+            ));
         }
-    }
-    if let Some(t) = toks.get(i) {
-        return Err(unexpected(t, Field::Rx));
-    }
-    finish(sphere, cylinder, axis_value, notices, Some(cyl_tok.start))
+        notices.extend(more);
+        a
+    } else {
+        return Err(unexpected(first, Field::Axis));
+    };
+    c.eat(|t| matches!(t, Tok::Degree));
+    Ok(Some(value))
 }
 
 fn finish(
@@ -413,26 +386,21 @@ fn finish(
 /// ```
 pub fn parse_sphere_field(text: &str) -> Result<Parsed<f64>, Error> {
     let toks = lex(text, Field::Sphere)?;
-    let mut i = 0;
-    if word(toks.first()).is_some_and(|w| matches!(w, "sph" | "sphere")) && toks.len() > 1 {
-        i = 1;
+    let mut c = Cursor::new(&toks);
+    if c.peek_second().is_some() {
+        c.eat_word(is_sphere_label); // "sph -2.00"
     }
-    let Some(t) = toks.get(i) else {
+    let Some(t) = c.next() else {
         return Err(Error::new(ErrorKind::Empty, Field::Sphere, None));
     };
     let (value, notices) = match &t.tok {
-        Tok::Num(n) => power(t, n, Role::Sphere)?,
-        Tok::Word(w) if is_plano(w) => (0.0, vec![]),
+        Tok::Num(n) => power(t, n, Role::Sphere)?,    // "-2.00"
+        Tok::Word(w) if is_plano(w) => (0.0, vec![]), // "plano"
         _ => return Err(unexpected(t, Field::Sphere)),
     };
-    i += 1;
-    if word(toks.get(i)).is_some_and(|w| w == "d" || is_spherical_mark(w)) {
-        i += 1;
-    }
-    match toks.get(i) {
-        Some(t) => Err(unexpected(t, Field::Sphere)),
-        None => Ok(Parsed { value, notices }),
-    }
+    c.eat_word(|w| w == "d" || is_spherical_mark(w)); // "-2.00 D", "-2.00 DS"
+    c.expect_end(Field::Sphere)?;
+    Ok(Parsed { value, notices })
 }
 
 /// Parse the cylinder field. Empty means no cylinder (0). Either sign
@@ -448,29 +416,24 @@ pub fn parse_sphere_field(text: &str) -> Result<Parsed<f64>, Error> {
 /// ```
 pub fn parse_cylinder_field(text: &str) -> Result<Parsed<f64>, Error> {
     let toks = lex(text, Field::Cylinder)?;
-    let mut i = 0;
-    if word(toks.first()).is_some_and(is_cyl_label) && toks.len() > 1 {
-        i = 1;
+    let mut c = Cursor::new(&toks);
+    if c.peek_second().is_some() {
+        c.eat_word(is_cyl_label); // "cyl -1.00"
     }
-    let Some(t) = toks.get(i) else {
+    let Some(t) = c.next() else {
         return Ok(Parsed {
             value: 0.0,
             notices: vec![],
         });
     };
     let (value, notices) = match &t.tok {
-        Tok::Num(n) => power(t, n, Role::Cylinder)?,
-        Tok::Word(w) if is_spherical_mark(w) || is_plano(w) => (0.0, vec![]),
+        Tok::Num(n) => power(t, n, Role::Cylinder)?, // "-1.00", "+1.00"
+        Tok::Word(w) if is_spherical_mark(w) || is_plano(w) => (0.0, vec![]), // "DS"
         _ => return Err(unexpected(t, Field::Cylinder)),
     };
-    i += 1;
-    if word(toks.get(i)).is_some_and(|w| w == "d" || is_cyl_label(w)) {
-        i += 1;
-    }
-    match toks.get(i) {
-        Some(t) => Err(unexpected(t, Field::Cylinder)),
-        None => Ok(Parsed { value, notices }),
-    }
+    c.eat_word(|w| w == "d" || is_cyl_label(w)); // "-1.00 D", "-1.00 DC"
+    c.expect_end(Field::Cylinder)?;
+    Ok(Parsed { value, notices })
 }
 
 /// Parse the axis field. Empty means no axis (`None`). Accepts `180`, `x180`,
@@ -488,34 +451,27 @@ pub fn parse_cylinder_field(text: &str) -> Result<Parsed<f64>, Error> {
 /// ```
 pub fn parse_axis_field(text: &str) -> Result<Parsed<Option<u16>>, Error> {
     let toks = lex(text, Field::Axis)?;
-    let mut i = 0;
-    if is_axis_mark(toks.first()) {
-        i = 1;
+    let mut c = Cursor::new(&toks);
+    if c.at_end() {
+        return Ok(Parsed {
+            value: None,
+            notices: vec![],
+        });
     }
-    let Some(t) = toks.get(i) else {
-        return match toks.first() {
-            Some(_) => Err(Error::new(ErrorKind::Empty, Field::Axis, None)),
-            None => Ok(Parsed {
-                value: None,
-                notices: vec![],
-            }),
-        };
+    c.eat(is_axis_mark); // "x180", "@90", "ax 90"
+    let Some(t) = c.next() else {
+        return Err(Error::new(ErrorKind::Empty, Field::Axis, None)); // "x"
     };
     let (value, notices) = match &t.tok {
         Tok::Num(n) => axis(t, n)?,
         _ => return Err(unexpected(t, Field::Axis)),
     };
-    i += 1;
-    if matches!(toks.get(i).map(|t| &t.tok), Some(Tok::Degree)) {
-        i += 1;
-    }
-    match toks.get(i) {
-        Some(t) => Err(unexpected(t, Field::Axis)),
-        None => Ok(Parsed {
-            value: Some(value),
-            notices,
-        }),
-    }
+    c.eat(|t| matches!(t, Tok::Degree)); // "90°"
+    c.expect_end(Field::Axis)?;
+    Ok(Parsed {
+        value: Some(value),
+        notices,
+    })
 }
 
 impl Rx {

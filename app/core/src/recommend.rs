@@ -65,7 +65,7 @@ pub struct Leftover {
 }
 
 impl Leftover {
-    fn between(lens: &Rx, exact: &Rx) -> Leftover {
+    pub(crate) fn between(lens: &Rx, exact: &Rx) -> Leftover {
         let d: PowerVector = lens.power_vector().minus(&exact.power_vector());
         Leftover {
             spherical_equivalent: d.m + 0.0,

@@ -5,7 +5,7 @@ use crate::error::Error;
 use crate::report_vertex::LadderKind;
 use crate::rounding::OrderSettings;
 use crate::warnings::{rx_warnings, vertex_warnings, Warning};
-use crate::{compensate, compensate_power, PowerVector, Rx, VertexDistance};
+use crate::{compensate, compensate_power, recommend, Leftover, PowerVector, Recommendation, Rx, VertexDistance};
 
 /// What the spherical-equivalent panel sends for one eye.
 #[derive(Clone, Debug, PartialEq)]
@@ -47,6 +47,10 @@ pub struct EquivalentReport {
     pub residual: PowerVector,
     /// Blur strength of that residual, D.
     pub residual_blur: f64,
+    /// What the ordered spherical lens leaves uncorrected.
+    pub leaves: Leftover,
+    /// The lens that keeps the cylinder (the alternative to a spherical lens).
+    pub full_correction: Recommendation,
     /// The substitute assessment at the target plane.
     pub assessment: SubstituteAssessment,
     /// Warnings.
@@ -67,6 +71,10 @@ pub struct EquivalentReport {
 /// assert_eq!(r.spherical_equivalent_at_origin, -2.25);
 /// assert_eq!(r.ordered.to_string(), "-2.25 DS");
 /// assert_eq!(r.assessment.verdict, Verdict::Suitable);
+/// // Meridians -2.00 and -2.50 at 12 mm are -1.9531 and -2.4272 at the cornea [derived, notes §2]:
+/// assert_eq!(fmt_dioptres(r.leaves.cylinder), "0.47 D");
+/// assert_eq!(r.full_correction.order.lens.to_string(), "-2.25 DS"); // below the smallest toric
+
 /// # Ok::<(), Error>(())
 /// ```
 pub fn equivalent_report(input: &EquivalentInput) -> Result<EquivalentReport, Error> {
@@ -102,6 +110,8 @@ pub fn equivalent_report(input: &EquivalentInput) -> Result<EquivalentReport, Er
         ordered_back_at_origin: compensate_power(ordered_sphere, *to, *from)?,
         residual,
         residual_blur: residual.blur_strength(),
+        leaves: Leftover::between(&ordered, &at_target),
+        full_correction: recommend(&at_target, *to, settings)?,
         assessment: assess_substitute(&at_target, substitute),
         warnings,
     })

@@ -109,11 +109,11 @@ test('N1/N2 [textbook]: accommodation at 40 cm through −6.00 and +6.00 spectac
   await expectRow(page, 'Left', 'Accommodation through the spectacles, no add', '2.81 D');
   await expectRow(page, 'Left', 'Accommodation in contact lenses, no add', '2.43 D');
   // Notes §6.3 and §10 [textbook]: a myope needs more accommodation in contact lenses, a hyperope less.
-  await result(page, 'Right').locator('.reason', { hasText: /myope in contact lenses needs more accommodation/ }).waitFor(WAIT);
+  await result(page, 'Right').locator('.reason', { hasText: /myope needs more accommodation in contact lenses/ }).waitFor(WAIT);
   // No add entered: the card leads with the accommodation and shows no add rows.
   await result(page, 'Right').locator('.reason', { hasText: /^-6\.00 DS with no add: / }).waitFor(WAIT);
   assert.equal(await result(page, 'Right').getByText('Orderable add').count(), 0);
-  await result(page, 'Left').locator('.reason', { hasText: /hyperope in contact lenses needs less accommodation/ }).waitFor(WAIT);
+  await result(page, 'Left').locator('.reason', { hasText: /hyperope needs less accommodation in contact lenses/ }).waitFor(WAIT);
   assert.deepEqual(errors, []);
   await page.close();
 });

@@ -56,7 +56,8 @@ impl Scope {
 /// The kinds of [`Caution`] (stable codes for the UI and tests).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum CautionKind {
-    /// Results are starting points, not a prescription.
+    /// Results are starting points, not a prescription; local regulations
+    /// and licensed practice decide.
     StartingPoint,
     /// The thin-lens model and the corneal reference plane.
     ThinLens,
@@ -66,8 +67,6 @@ pub enum CautionKind {
     PresbyopeAccommodation,
     /// Screening staff refer; no patient identifiers.
     ScreeningRefer,
-    /// Local regulations and licensed practice decide.
-    LocalRules,
     /// A spherical lens leaves the astigmatism uncorrected.
     SphericalLeavesAstigmatism,
     /// Multifocal contact-lens "add" labels are not optical adds.
@@ -76,39 +75,34 @@ pub enum CautionKind {
     PopulationEstimate,
     /// Trial the add at the real reading distance.
     TrialAtDistance,
-    /// Near figures are referred to the corneal vertex.
-    NearReference,
 }
 
 impl CautionKind {
     /// Every kind, in the order a page lists them.
-    pub const ALL: [CautionKind; 11] = [
+    pub const ALL: [CautionKind; 9] = [
         CautionKind::StartingPoint,
         CautionKind::SphericalLeavesAstigmatism,
         CautionKind::MultifocalLabels,
         CautionKind::PopulationEstimate,
         CautionKind::TrialAtDistance,
-        CautionKind::NearReference,
         CautionKind::ThinLens,
         CautionKind::MeasureVertex,
         CautionKind::PresbyopeAccommodation,
         CautionKind::ScreeningRefer,
-        CautionKind::LocalRules,
     ];
 
     /// Where this caution applies.
     pub fn scope(self) -> Scope {
         use Calculation::*;
         match self {
-            CautionKind::StartingPoint | CautionKind::ScreeningRefer | CautionKind::LocalRules => Scope::Everywhere,
+            CautionKind::StartingPoint | CautionKind::ScreeningRefer => Scope::Everywhere,
             CautionKind::ThinLens => Scope::Only(&[Vertex, Equivalent, Near, OverRefraction, ImageSize, Chart]),
-            CautionKind::MeasureVertex => Scope::Only(&[Vertex, Equivalent, Near, OverRefraction, Chart]),
+            CautionKind::MeasureVertex => Scope::Only(&[Vertex, Equivalent, OverRefraction, Chart]),
             CautionKind::PresbyopeAccommodation => Scope::Only(&[Vertex, Near]),
             CautionKind::SphericalLeavesAstigmatism => Scope::Only(&[Equivalent]),
-            CautionKind::MultifocalLabels
-            | CautionKind::PopulationEstimate
-            | CautionKind::TrialAtDistance
-            | CautionKind::NearReference => Scope::Only(&[Near]),
+            CautionKind::MultifocalLabels | CautionKind::PopulationEstimate | CautionKind::TrialAtDistance => {
+                Scope::Only(&[Near])
+            }
         }
     }
 }
@@ -117,7 +111,7 @@ impl fmt::Display for CautionKind {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
             CautionKind::StartingPoint => {
-                f.write_str("Results are starting points, not a prescription: confirm by over-refraction and acuity.")
+                f.write_str("Results are starting points, not a prescription: confirm by over-refraction and acuity, and defer to local regulations and licensed practice.")
             }
             CautionKind::ThinLens => f.write_str(
                 "Powers are referred to the corneal vertex (thin-lens model): no tear lens, rigid-lens astigmatism, flexure or toric rotation.",
@@ -130,7 +124,6 @@ impl fmt::Display for CautionKind {
                 "Myopic presbyopes moving to contact lenses need more accommodation and convergence; hyperopes less.",
             ),
             CautionKind::ScreeningRefer => f.write_str("Screening staff refer, not diagnose. Store no patient identifiers."),
-            CautionKind::LocalRules => f.write_str("Defer to local regulations and licensed practice."),
             CautionKind::SphericalLeavesAstigmatism => f.write_str(
                 "A spherical lens leaves the astigmatism shown uncorrected: check acuity with the lens on the eye.",
             ),
@@ -143,9 +136,6 @@ impl fmt::Display for CautionKind {
             CautionKind::TrialAtDistance => {
                 f.write_str("Trial the add at the patient's real reading distance before ordering.")
             }
-            CautionKind::NearReference => f.write_str(
-                "Accommodation is referred to the corneal vertex; the reading distance is taken from the plane chosen above.",
-            ),
         }
     }
 }
@@ -210,11 +200,7 @@ mod tests {
     fn every_calculation_carries_the_cautions_that_apply_everywhere() {
         for calc in ALL.iter().copied() {
             let kinds: Vec<_> = cautions_for(calc).map(|c| c.kind).collect();
-            for k in [
-                CautionKind::StartingPoint,
-                CautionKind::ScreeningRefer,
-                CautionKind::LocalRules,
-            ] {
+            for k in [CautionKind::StartingPoint, CautionKind::ScreeningRefer] {
                 assert!(kinds.contains(&k), "{calc:?} lacks {k:?}");
             }
         }

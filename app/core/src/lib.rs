@@ -194,4 +194,4 @@ pub use toric::{choose_toric, round_axis, ToricChoice, ToricSettings};
 pub use units::{Add, Age, Eye, EyePair, Measured, ReadingDistance, VertexDistance};
 pub use vectors::PowerVector;
 pub use vertex::{compensate, compensate_meridians, compensate_power, effective_power};
-pub use warnings::{rx_warnings, vertex_warnings, Warning, WarningKind};
+pub use warnings::{rx_warnings, vertex_warnings, Place, Warning, WarningKind};

@@ -243,7 +243,7 @@ fn near_summary(se: f64, add: f64, target: VertexDistance, f: &NearFigures) -> S
         "less accommodation"
     };
     let mut s = format!(
-        "{who} {wearing} needs {more} at this distance ({} D vs {} D through the spectacles)",
+        "{who} needs {more} {wearing}: {} D against {} D in spectacles",
         fmt_number(f.accommodation_target),
         fmt_number(f.accommodation_spectacles)
     );
@@ -251,16 +251,14 @@ fn near_summary(se: f64, add: f64, target: VertexDistance, f: &NearFigures) -> S
         let change = f.add_at_target - add;
         if change.abs() < 0.125 {
             s.push_str(&format!(
-                "; the equivalent add is {}, within a quarter step of the spectacle add {}",
-                fmt_power(f.add_at_target),
+                "; within a quarter step of the spectacle add {}",
                 fmt_power(add)
             ));
         } else {
             s.push_str(&format!(
-                "; the add may need to {} by about {} D (equivalent add {}, spectacle add {})",
+                "; the add may need to {} by about {} D from {}",
                 if change > 0.0 { "rise" } else { "fall" },
                 fmt_number(change.abs()),
-                fmt_power(f.add_at_target),
                 fmt_power(add)
             ));
         }

@@ -19,6 +19,39 @@ pub struct Warning {
     pub message: String,
 }
 
+/// Where a [`Warning`] belongs on the page.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Place {
+    /// Beside this eye's result: it depends on this eye's figures.
+    Result,
+    /// At the input it concerns, once for both eyes: it depends only on
+    /// inputs the eyes share (vertex distances, add, age).
+    SharedInput,
+    /// At the prescription field, where the parser already said it as a
+    /// notice (an off-step power): not repeated beside the result.
+    Entry,
+}
+
+impl Warning {
+    /// Where the page shows it.
+    ///
+    /// ```
+    /// use lensplane_core::{rx_warnings, Place, Rx};
+    /// let w = rx_warnings(&Rx::new(-2.30, -1.0, 180)?);
+    /// assert_eq!(w[0].place(), Place::Entry);
+    /// # Ok::<(), lensplane_core::Error>(())
+    /// ```
+    pub fn place(&self) -> Place {
+        match self.kind {
+            WarningKind::OffStep => Place::Entry,
+            WarningKind::UnusualVertex | WarningKind::AmplitudeUnreliable | WarningKind::AddDiffersFromAge => {
+                Place::SharedInput
+            }
+            _ => Place::Result,
+        }
+    }
+}
+
 /// The kinds of [`Warning`].
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum WarningKind {
@@ -165,7 +198,7 @@ pub fn vertex_warnings(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Vec
             _ => None,
         };
         let tail = sensitivity.map_or(String::new(), |s| {
-            format!("; 2 mm changes this result by {} D", fmt_number(s))
+            format!(" (2 mm changes this by {} D)", fmt_number(s))
         });
         out.push(warn(
             WarningKind::MeasureVertex,
@@ -175,7 +208,7 @@ pub fn vertex_warnings(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Vec
                 Field::VertexFrom
             },
             format!(
-                "a meridian of {} is beyond {MEASURE_VERTEX}: measure the vertex distance{tail}",
+                "{} is beyond {MEASURE_VERTEX}: measure the vertex distance{tail}",
                 fmt_power(strongest)
             ),
         ));

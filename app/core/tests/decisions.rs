@@ -281,7 +281,7 @@ fn d12_measure_vertex_warning_states_the_sensitivity() {
     // (the notes: 2 mm error at +12 D ≈ 0.4 D).
     assert_eq!(
         m.message,
-        "a meridian of +12.00 is beyond ±4 D: measure the vertex distance; 2 mm changes this result by 0.40 D"
+        "+12.00 is beyond ±4 D: measure the vertex distance (2 mm changes this by 0.40 D)"
     );
     assert_eq!(m.field, Field::VertexFrom);
 }

@@ -148,20 +148,20 @@ fn near_report_summary_lines() {
     let r = near(Rx::sphere_only(-6.0).unwrap(), 2.5, VertexDistance::CORNEA, None);
     assert_eq!(
         r.summary,
-        "a myope in contact lenses needs more accommodation at this distance (2.43 D vs 2.12 D through the spectacles); the equivalent add is +2.43, within a quarter step of the spectacle add +2.50"
+        "a myope needs more accommodation in contact lenses: 2.43 D against 2.12 D in spectacles; within a quarter step of the spectacle add +2.50"
     );
     // [derived] hyperope +6.00 with add +2.00: equivalent add +1.8504.
     let r = near(Rx::sphere_only(6.0).unwrap(), 2.0, VertexDistance::CORNEA, None);
     assert!((r.add_at_target - 1.8504).abs() < 1e-4);
     assert_eq!(
         r.summary,
-        "a hyperope in contact lenses needs less accommodation at this distance (2.43 D vs 2.81 D through the spectacles); the add may need to fall by about 0.15 D (equivalent add +1.85, spectacle add +2.00)"
+        "a hyperope needs less accommodation in contact lenses: 2.43 D against 2.81 D in spectacles; the add may need to fall by about 0.15 D from +2.00"
     );
     // Another spectacle distance.
     let r = near(Rx::sphere_only(-6.0).unwrap(), 0.0, mm(16.0), None);
     assert!(
         r.summary
-            .starts_with("a myope with the lens at 16 mm needs less accommodation"),
+            .starts_with("a myope needs less accommodation with the lens at 16 mm"),
         "{}",
         r.summary
     );

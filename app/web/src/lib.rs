@@ -7,6 +7,7 @@
 pub mod history;
 pub mod link;
 mod panels;
+mod prefs;
 mod shell;
 mod sync;
 mod theme;

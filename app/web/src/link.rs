@@ -19,7 +19,7 @@ use percent_encoding::{percent_decode_str, utf8_percent_encode, AsciiSet, NON_AL
 /// travels as `%2B` and a space as `%20`.
 const VALUE: &AsciiSet = &NON_ALPHANUMERIC.remove(b'-').remove(b'.').remove(b'_').remove(b'~');
 
-/// The four destinations of the app.
+/// The destinations of the app.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum Destination {
     Vertex,
@@ -38,13 +38,6 @@ impl Destination {
         Destination::Near,
         Destination::History,
         Destination::About,
-    ];
-    /// The ones in the main navigation.
-    pub const NAV: [Destination; 4] = [
-        Destination::Vertex,
-        Destination::Equivalent,
-        Destination::Near,
-        Destination::History,
     ];
 
     /// The route, relative to where the app is deployed.
@@ -77,15 +70,26 @@ impl Destination {
         Some(Destination::from_path(rest))
     }
 
-    /// Its name in the navigation and in the history.
-    pub fn label(self) -> &'static str {
+    /// Its one name: the page title, the navigation, the history and
+    /// copied text all use it.
+    pub fn title(self) -> &'static str {
         match self {
             Destination::Vertex => "Vertex",
-            Destination::Equivalent => "Sph. equivalent",
+            Destination::Equivalent => "Spherical equivalent",
             Destination::Near => "Near",
             Destination::History => "History",
             Destination::About => "About",
         }
+    }
+
+    /// Its stable id, as the history and its files store it ("vertex").
+    pub fn id(self) -> &'static str {
+        self.path().trim_start_matches('/')
+    }
+
+    /// The destination a stored id names.
+    pub fn from_id(id: &str) -> Option<Destination> {
+        Destination::ALL.into_iter().find(|d| d.id() == id)
     }
 
     /// The query keys this destination understands, in the order links write them.
@@ -224,6 +228,9 @@ mod tests {
             assert_eq!(Destination::from_path(&format!("{}/", d.path())), Some(d));
         }
         assert_eq!(Destination::from_path("/elsewhere"), None);
+        for d in Destination::ALL {
+            assert_eq!(Destination::from_id(d.id()), Some(d));
+        }
     }
 
     #[test]

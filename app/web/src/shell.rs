@@ -1,16 +1,16 @@
-//! The app shell: masthead, compact navigation, the four destinations,
+//! The app shell: masthead, the navigation to every destination,
 //! the connection indicator and the footer.
 
 use crate::history::History;
-use crate::link::{Destination, Query};
+use crate::link::Destination;
 use crate::panels::{AboutPanel, EquivalentPanel, HistoryBanner, HistoryPanel, NearPanel, VertexPanel};
-use crate::sync::{carried_href, Base, Carry};
+use crate::prefs::{FieldsShown, Remembered};
+use crate::sync::{carried_href, ActiveQuery, Base, Carry};
 use crate::theme::ThemeButton;
 use leptos::prelude::*;
 use leptos_router::components::Router;
-use leptos_router::hooks::{use_location, use_navigate};
+use leptos_router::hooks::use_location;
 use leptos_router::location::{BrowserUrl, LocationProvider};
-use leptos_router::NavigateOptions;
 
 /// Where the app is deployed ("" or "/sub"), as recorded by boot.js.
 fn deploy_base() -> String {
@@ -48,47 +48,39 @@ fn ConnectionBadge() -> impl IntoView {
     }
 }
 
-/// The page the router's location names. Lensplane's destinations are five
+/// The page the router's location names. Lensplane's destinations are
 /// fixed paths with no nesting and no route data, so the location is matched
 /// here with [`Destination::route`] instead of through `<Routes>`, whose
 /// general machinery (nested matching, async route data) cost about 27 KB
-/// gzip of the shell. A panel is rebuilt only when the destination changes.
+/// gzip of the shell. The page is rebuilt when the destination or its link
+/// changes by a real navigation (a link, back, forward): a panel is always
+/// built from the link it shows. The app's root shows the vertex panel,
+/// whose link then replaces the root in the address bar.
 #[component]
 fn Page(base: String) -> impl IntoView {
     let location = use_location();
     let provider = use_context::<BrowserUrl>();
-    let navigate = use_navigate();
-    let root = format!("{base}/vertex");
-    let route = Memo::new(move |_| location.pathname.with(|p| Destination::route(p, &base)));
-    move || {
-        let page = match route.get() {
-            None => {
-                // The root opens the vertex panel in place of itself (back does not return to it).
-                navigate(
-                    &root,
-                    NavigateOptions {
-                        replace: true,
-                        resolve: false,
-                        ..NavigateOptions::default()
-                    },
-                );
-                ().into_any()
-            }
-            Some(Some(d)) => match d {
-                Destination::Vertex => view! { <VertexPanel/> }.into_any(),
-                Destination::Equivalent => view! { <EquivalentPanel/> }.into_any(),
-                Destination::Near => view! { <NearPanel/> }.into_any(),
-                Destination::History => view! { <HistoryPanel/> }.into_any(),
-                Destination::About => view! { <AboutPanel/> }.into_any(),
-            },
-            Some(None) => view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }.into_any(),
-        };
-        // The router writes a new path into the address bar only once the
-        // page for it is ready, as `<Routes>` would tell it.
+    let page = Memo::new(move |_| {
+        let d = location.pathname.with(|p| Destination::route(p, &base));
+        (d.unwrap_or(Some(Destination::Vertex)), location.search.get())
+    });
+    // The router writes a new path into the address bar only once the page
+    // for it is ready, as `<Routes>` would tell it; the title follows.
+    Effect::new(move |_| {
+        let (d, _) = page.get();
         if let Some(p) = &provider {
             p.ready_to_complete();
         }
-        page
+        let title = d.map_or("Not found", Destination::title);
+        document().set_title(&format!("{title} · Lensplane"));
+    });
+    move || match page.get().0 {
+        Some(Destination::Vertex) => view! { <VertexPanel/> }.into_any(),
+        Some(Destination::Equivalent) => view! { <EquivalentPanel/> }.into_any(),
+        Some(Destination::Near) => view! { <NearPanel/> }.into_any(),
+        Some(Destination::History) => view! { <HistoryPanel/> }.into_any(),
+        Some(Destination::About) => view! { <AboutPanel/> }.into_any(),
+        None => view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }.into_any(),
     }
 }
 
@@ -105,34 +97,47 @@ fn skip_to_main(ev: leptos::ev::MouseEvent) {
     }
 }
 
+/// Every destination under its one name, the current one marked. The links
+/// wrap onto as many rows as the width needs, so any destination is one tap
+/// away at any width without sideways scrolling.
+#[component]
+fn Destinations(base: String, carry: Carry) -> impl IntoView {
+    let here = use_location();
+    let route_base = base.clone();
+    let current = Memo::new(move |_| here.pathname.with(|p| Destination::route(p, &route_base)));
+    let links = Destination::ALL
+        .into_iter()
+        .map(|d| {
+            // Plain links: the router follows them in place; the base is ours to add.
+            let b = base.clone();
+            let href = move || format!("{b}{}", carry.0.with(|c| carried_href(d, c)));
+            let is_current = move || {
+                current
+                    .get()
+                    .is_some_and(|c| c.unwrap_or(Destination::Vertex) == d)
+                    .then_some("page")
+            };
+            view! { <li><a href=href aria-current=is_current>{d.title()}</a></li> }
+        })
+        .collect_view();
+    view! {
+        <nav class="destinations" aria-label="Destinations">
+            <ul>{links}</ul>
+        </nav>
+    }
+}
+
 #[component]
 pub fn App() -> impl IntoView {
     let base = deploy_base();
     provide_context(Base(base.clone()));
     provide_context(History::new());
-    let carry = RwSignal::new(Query::default());
-    provide_context(Carry(carry));
-    let link_base = base.clone();
-    let about_base = base.clone();
+    provide_context(FieldsShown(Remembered::new("lensplane.fields")));
+    let active = ActiveQuery(RwSignal::new(None));
+    provide_context(active);
+    let carry = Carry::new(active);
+    let nav_base = base.clone();
     let page_base = base.clone();
-    let links = move || {
-        Destination::NAV
-            .into_iter()
-            .map(|d| {
-                // Plain links: the router follows them in place; the base is ours to add.
-                let b = link_base.clone();
-                let route_base = link_base.clone();
-                let href = move || format!("{b}{}", carried_href(d, &carry.get()));
-                let here = use_location();
-                let current = move || {
-                    here.pathname
-                        .with(|p| Destination::route(p, &route_base) == Some(Some(d)))
-                        .then_some("page")
-                };
-                view! { <a href=href aria-current=current>{d.label()}</a> }
-            })
-            .collect_view()
-    };
     view! {
         <Router base=base>
             <a class="skip-link" href="#main" on:click=skip_to_main>"Skip to the calculator"</a>
@@ -144,17 +149,16 @@ pub fn App() -> impl IntoView {
                 <span class="masthead-tools">
                     <ConnectionBadge/>
                     <ThemeButton/>
-                    <a href=format!("{about_base}/about")>"About"</a>
                 </span>
             </header>
-            <nav class="destinations" aria-label="Calculators">{links}</nav>
+            <Destinations base=nav_base carry=carry/>
             <HistoryBanner/>
             <main id="main" tabindex="-1">
                 <Page base=page_base/>
             </main>
             <footer class="colophon">
-                <p>"Lensplane computes starting points, not prescriptions. Follow local regulations and licensed practice. Everything stays on this device."</p>
-                <p class="build">{format!("Version {} · build {}", build_meta("lensplane-version"), build_meta("lensplane-build"))}</p>
+                <p>"Starting points, not prescriptions: follow local regulations and licensed practice. Everything stays on this device."
+                    " "<span class="build">{format!("Version {} · build {}", build_meta("lensplane-version"), build_meta("lensplane-build"))}</span></p>
             </footer>
         </Router>
     }

@@ -1,5 +1,13 @@
-//! Keeps the address bar and a panel's inputs in step, both ways, and
-//! carries the prescriptions along when the user moves between panels.
+//! Keeps the address bar in step with the panel on screen, and carries the
+//! prescriptions along when the user moves between panels.
+//!
+//! A panel is built from the link it opens with ([`initial_query`]) and
+//! provides its inputs as a `Memo<Query>` ([`use_link_sync`]). Typing
+//! replaces the address (`history.replaceState`: no history entries, and the
+//! router's location does not change); a real navigation — a link, back or
+//! forward — changes the router's location, and the shell then builds the
+//! panel afresh from the new link. So nothing ever loads a link into a
+//! panel that already exists.
 
 use crate::link::{href, Destination, Query};
 use leptos::prelude::*;
@@ -9,10 +17,34 @@ use leptos_router::hooks::use_location;
 #[derive(Clone, Debug)]
 pub struct Base(pub String);
 
-/// The inputs the panels share (r, l, from, to, add, reading…), so the
-/// navigation opens the next panel with the same prescription.
+/// The inputs of the panel on screen, as it provides them (set when the
+/// panel is built; the shell derives the carried values from it).
 #[derive(Clone, Copy)]
-pub struct Carry(pub RwSignal<Query>);
+pub struct ActiveQuery(pub RwSignal<Option<(Destination, Memo<Query>)>>);
+
+/// The inputs the calculators share (r, l, from, to, add, reading…),
+/// gathered from every calculator opened so far, so the navigation opens
+/// the next one with the same prescription.
+#[derive(Clone, Copy)]
+pub struct Carry(pub Memo<Query>);
+
+impl Carry {
+    /// The carried values: the panel on screen's inputs over what earlier
+    /// calculators carried (a Memo that keeps its previous value, so the
+    /// history or about page carries on what the last calculator had).
+    pub fn new(active: ActiveQuery) -> Carry {
+        Carry(Memo::new(move |previous: Option<&Query>| {
+            let mut carried = previous.cloned().unwrap_or_default();
+            // A panel that was replaced is gone: its memo reads as nothing.
+            if let Some((dest, q)) = active.0.get().and_then(|(d, m)| Some((d, m.try_get()?))) {
+                for key in dest.keys() {
+                    carried.set(key, q.get(key).unwrap_or(""));
+                }
+            }
+            carried
+        }))
+    }
+}
 
 /// The link of `dest` with whatever the panels currently carry.
 pub fn carried_href(dest: Destination, carry: &Query) -> String {
@@ -36,38 +68,17 @@ fn replace_address(url: &str) {
     }
 }
 
-/// Writes `current` into the address bar whenever it changes, and calls
-/// `load` when the address changes from outside (a link opened within the
-/// same panel, back/forward).
-pub fn use_link_sync(dest: Destination, current: Memo<Query>, load: impl Fn(&Query) + 'static) {
-    let location = use_location();
+/// Provides the panel's inputs to the shell and writes them into the
+/// address bar whenever they change.
+pub fn use_link_sync(dest: Destination, current: Memo<Query>) {
     let base = use_context::<Base>().map(|b| b.0).unwrap_or_default();
-    let carry = use_context::<Carry>();
-    let written = StoredValue::new(String::new());
-
-    Effect::new(move |previous: Option<()>| {
-        let raw = location.search.get();
-        // The panel was built from the link it opened with; only later
-        // changes need loading.
-        if previous.is_some() {
-            let q = Query::parse(&raw);
-            if q.encode(dest.keys()) != written.get_value() {
-                load(&q);
-            }
-        }
-    });
-
+    if let Some(ActiveQuery(active)) = use_context::<ActiveQuery>() {
+        active.set(Some((dest, current)));
+    }
+    // The address bar is the outside world: an Effect is the place to write it.
     Effect::new(move |_| {
         let q = current.get();
-        written.set_value(q.encode(dest.keys()));
         replace_address(&format!("{base}{}", href(dest, &q)));
-        if let Some(Carry(carry)) = carry {
-            carry.update(|c| {
-                for key in dest.keys() {
-                    c.set(key, q.get(key).unwrap_or(""));
-                }
-            });
-        }
     });
 }
 

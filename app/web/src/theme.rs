@@ -40,6 +40,15 @@ impl Theme {
         }
     }
 
+    /// What the button shows (its accessible name is [`Theme::label`]).
+    pub fn short(self) -> &'static str {
+        match self {
+            Theme::System => "◐ System",
+            Theme::Light => "☀ Light",
+            Theme::Dark => "☾ Dark",
+        }
+    }
+
     pub fn label(self) -> &'static str {
         match self {
             Theme::System => "Theme: system",
@@ -49,14 +58,8 @@ impl Theme {
     }
 }
 
-fn storage() -> Option<web_sys::Storage> {
-    // Some private modes throw on access: then the choice lasts for the session only.
-    web_sys::window().and_then(|w| w.local_storage().ok().flatten())
-}
-
 pub fn remembered() -> Theme {
-    storage()
-        .and_then(|s| s.get_item(KEY).ok().flatten())
+    crate::prefs::read(KEY)
         .map(|n| Theme::from_name(&n))
         .unwrap_or(Theme::System)
 }
@@ -68,12 +71,7 @@ pub fn apply(theme: Theme) {
             t => root.set_attribute("data-theme", t.name()),
         };
     }
-    if let Some(s) = storage() {
-        let _ = match theme {
-            Theme::System => s.remove_item(KEY),
-            t => s.set_item(KEY, t.name()),
-        };
-    }
+    crate::prefs::write(KEY, (theme != Theme::System).then(|| theme.name()));
 }
 
 /// The theme button of the masthead.
@@ -81,9 +79,9 @@ pub fn apply(theme: Theme) {
 pub fn ThemeButton() -> impl IntoView {
     let theme = RwSignal::new(remembered());
     view! {
-        <button type="button" class="button quiet theme-button"
+        <button type="button" class="button quiet theme-button" aria-label=move || theme.get().label()
             on:click=move |_| { let next = theme.get_untracked().next(); theme.set(next); apply(next); }>
-            {move || theme.get().label()}
+            {move || theme.get().short()}
         </button>
     }
 }

@@ -272,7 +272,7 @@ pub fn panel_of(name: &str) -> Option<Destination> {
 
 /// Words shown for a panel.
 pub fn panel_words(d: Destination) -> &'static str {
-    d.label()
+    d.title()
 }
 
 /// Characters of trade notation and the app's own wording that have no case.

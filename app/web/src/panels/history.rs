@@ -166,10 +166,7 @@ pub fn HistoryPanel() -> impl IntoView {
     let exported_aside = RwSignal::new(false);
 
     let current = Memo::new(move |_| Query::default().with("q", &text.get()).with("panel", &panel.get()));
-    use_link_sync(Destination::History, current, move |q: &Query| {
-        text.set(q.get("q").unwrap_or_default().into());
-        panel.set(q.get("panel").unwrap_or_default().into());
-    });
+    use_link_sync(Destination::History, current);
 
     let results = Memo::new(move |_| {
         let p = panel.get();

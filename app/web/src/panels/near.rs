@@ -4,15 +4,18 @@
 //! and, with an age, Hofstetter's amplitudes and tentative adds. Every
 //! figure comes from the core's `near_report`.
 
-use super::common::{summary, EyeOutcome, EyeResults, Eyes};
-use super::vertex::plane_words;
+use super::common::{summary, EyeEntries, EyeResults, Eyes};
+use super::vertex::{plane_words, target_words};
 use crate::link::{Destination, Query};
+use crate::prefs::Remembered;
 use crate::sync::{initial_query, use_link_sync};
-use crate::widgets::{Card, Cautions, EyeEntryForm, Message, PlaneInputs, Planes, Row, TextField};
+use crate::widgets::{
+    field_warnings, result_warnings, Card, Cautions, Headline, Message, PlaneInputs, Planes, Row, TextField,
+};
 use lensplane_core::{
-    fmt_dioptres, fmt_length, fmt_number, fmt_power, near_report, parse_add, parse_age, parse_reading_distance,
-    parse_reading_inches, Add, Age, Error, Measured, NearFigures, NearInput, NearReport, Notice, OrderSettings, Parsed,
-    ReadingDistance, StepKind, TentativeAdd,
+    fmt_axis, fmt_dioptres, fmt_length, fmt_number, fmt_power, near_report, parse_add, parse_age,
+    parse_reading_distance, parse_reading_inches, Add, Age, Error, Field, Measured, NearFigures, NearInput, NearReport,
+    Notice, OrderSettings, Parsed, ReadingDistance, StepKind, TentativeAdd,
 };
 use leptos::prelude::*;
 
@@ -159,7 +162,9 @@ fn tentative_row(label: &str, t: &TentativeAdd, entered: f64) -> Row {
     )
 }
 
-/// The near result of one eye as a card.
+/// The near result of one eye as a card: the add (at the cornea, the
+/// equivalent add in quarter steps) with its exact value; without an add,
+/// the accommodation the reading distance asks in the new correction.
 pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
     let target = plane_words(input.target);
     let in_target = if input.target.is_cornea() {
@@ -174,19 +179,20 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
         "the spectacle plane"
     };
     let add = fmt_power(r.add);
+    let reading = reading_words(input.reading, inches);
     // No add entered (or plano): what the reading distance asks, and tentative adds with an age.
     let no_add = input.add == Add::NONE;
-    let mut rows = vec![];
+    let mut details = vec![];
     if r.meridians.len() > 1 {
-        rows.push(Row::new(
+        details.push(Row::new(
             "Spherical equivalent",
             fmt_power(e.distance_power),
             "the figures below are for it; each principal meridian follows",
         ));
     }
-    rows.extend([
+    details.extend([
         Row::new(
-            format!("Demand at {}", reading_words(input.reading, inches)),
+            format!("Demand at {reading}"),
             fmt_dioptres(r.demand),
             format!(
                 "measured from {from}; spectacle accommodation (at the lens plane) {}",
@@ -200,24 +206,24 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
         ),
     ]);
     if !no_add {
-        rows.push(Row::new(
+        details.push(Row::new(
             format!("Accommodation through the spectacles with the add {add}"),
             fmt_dioptres(e.accommodation_spectacles_with_add),
             "",
         ));
     }
-    rows.push(Row::new(
+    details.push(Row::new(
         format!("Accommodation {in_target}, no add"),
         fmt_dioptres(e.accommodation_target),
         "",
     ));
     if !no_add {
-        add_rows(&mut rows, r, &add, &target);
+        add_rows(&mut details, r, &add, &target);
     }
     if r.meridians.len() > 1 {
         for m in &r.meridians {
-            rows.push(Row::new(
-                format!("Meridian {}°", m.meridian.unwrap_or(0)),
+            details.push(Row::new(
+                format!("Meridian {}°", m.meridian.map(fmt_axis).unwrap_or_default()),
                 fmt_power(m.distance_power),
                 figures_line(m, &in_target, no_add),
             ));
@@ -225,7 +231,7 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
     }
     if let Some(a) = &r.amplitude {
         let amp = a.amplitude;
-        rows.push(Row::new(
+        details.push(Row::new(
             format!("Amplitude at age {} (Hofstetter)", a.age.years()),
             format!(
                 "{} / {} / {} D",
@@ -235,37 +241,68 @@ pub fn near_card(input: &NearInput, r: &NearReport, inches: bool) -> Card {
             ),
             "minimum / average / maximum: a population estimate",
         ));
-        rows.push(tentative_row(
+        details.push(tentative_row(
             "Tentative add, minimum amplitude",
             &a.tentative_from_minimum,
             r.add,
         ));
-        rows.push(tentative_row(
+        details.push(tentative_row(
             "Tentative add, average amplitude",
             &a.tentative_from_average,
             r.add,
         ));
     }
-    let (main_label, main_value, with) = if no_add {
+    let spectacle_from = format!("at {}", plane_words(input.spectacle_vertex));
+    let (headline, copy) = if no_add {
+        let value = fmt_dioptres(e.accommodation_target);
+        let spectacles = fmt_dioptres(e.accommodation_spectacles);
         (
-            format!("Accommodation {in_target}"),
-            fmt_dioptres(e.accommodation_target),
-            "no add".to_string(),
+            Headline {
+                label: "Accommodation".into(),
+                short: "Accommodation",
+                value: value.clone(),
+                note: format!("What {reading} asks {in_target}, at the cornea"),
+                exact_label: "Through the spectacles".into(),
+                exact: spectacles.clone(),
+                exact_short: "spectacles",
+            },
+            format!(
+                "accommodation {value} {in_target}, {spectacles} through the spectacles (from {} {spectacle_from}, reading at {reading})",
+                r.input
+            ),
         )
     } else {
+        let rounded = fmt_power(r.add_at_target_rounded);
+        let note = if input.target.is_cornea() {
+            "Not a multifocal lens's add label".to_string()
+        } else {
+            format!("Equivalent add for the lens at {target}, in quarter steps")
+        };
         (
-            format!("Equivalent add at {target}"),
-            fmt_power(r.add_at_target),
-            format!("add {add}"),
+            Headline {
+                label: "Equivalent add".into(),
+                short: "Add",
+                value: rounded.clone(),
+                note,
+                exact_label: "exact".into(),
+                exact: fmt_power(r.add_at_target),
+                exact_short: "exact",
+            },
+            format!(
+                "add {rounded} ({}, from {} with add {add} {spectacle_from}, reading at {reading})",
+                target_words(input.target),
+                r.input
+            ),
         )
     };
     Card {
-        main_label,
-        main_value,
-        reason: format!("{} with {with}: {}.", r.input, r.summary),
-        rows,
-        warnings: r.warnings.iter().map(|w| w.message.clone()).collect(),
+        headline,
+        why: format!("{}.", super::vertex::capitalised(&r.summary)),
+        alternatives: vec![],
+        warnings: result_warnings(&r.warnings),
+        details,
         cross: None,
+        copy,
     }
 }
 
@@ -275,10 +312,10 @@ fn add_rows(rows: &mut Vec<Row>, r: &NearReport, add: &str, target: &str) {
     rows.extend([
         Row::new("Relief the spectacle add gives at the eye", fmt_dioptres(e.relief_at_eye), ""),
         Row::new(
-            "Orderable add",
+            "Equivalent add in quarter steps",
             fmt_power(r.add_at_target_rounded),
             format!(
-                "exact {}; change from the spectacle add {add}: {}; with the orderable add the eye accommodates {} at this distance",
+                "exact {}; change from the spectacle add {add} (+ means more add): {}; with it the eye accommodates {} at this distance",
                 fmt_power(r.add_at_target),
                 fmt_power(r.add_change),
                 fmt_dioptres(e.accommodation_target_with_rounded_add)
@@ -290,21 +327,26 @@ fn add_rows(rows: &mut Vec<Row>, r: &NearReport, add: &str, target: &str) {
             format!("distance prescription there {}", r.distance_at_target),
         ),
         Row::new(
-            "Near prescription, orderable",
+            "Near prescription in steps",
             r.near_at_target_ordered.to_string(),
-            format!("orderable distance {} with the add {}", r.distance_at_target_ordered, fmt_power(r.add_at_target_rounded)),
+            format!(
+                "distance {} on the lens steps, with the add {}",
+                r.distance_at_target_ordered,
+                fmt_power(r.add_at_target_rounded)
+            ),
         ),
     ]);
 }
 
 /// Two radio buttons for a yes/no choice: `first` when `signal` is false,
-/// `second` when it is true.
+/// `second` when it is true; `inline` keeps them in the row of a field.
 fn choice_pair(
     group: &'static str,
     legend: &'static str,
     first: &'static str,
     second: &'static str,
     signal: RwSignal<bool>,
+    inline: bool,
 ) -> impl IntoView {
     let radio = move |value: bool, text: &'static str| {
         view! {
@@ -314,9 +356,11 @@ fn choice_pair(
             </label>
         }
     };
+    let label_id = format!("{group}-label");
+    let labelled_by = label_id.clone();
     view! {
-        <div class="target" role="radiogroup" aria-labelledby=format!("{group}-label")>
-            <span id=format!("{group}-label") class="group-label">{legend}</span>
+        <div class="target" class:inline=inline class:row=!inline role="radiogroup" aria-labelledby=labelled_by>
+            <span id=label_id class="group-label" class:visually-hidden=inline>{legend}</span>
             {radio(false, first)}
             {radio(true, second)}
         </div>
@@ -328,46 +372,29 @@ pub fn NearPanel() -> impl IntoView {
     let q = initial_query();
     let planes = Planes::new(q.get("from"), q.get("to"));
     let near = NearFields::new(&q);
-    let eyes = Eyes::new(&q, move |eye, rx| -> Result<EyeOutcome, Error> {
-        let (spectacle_vertex, target) = planes.both()?;
-        let v = near.values()?;
-        let input = NearInput {
-            rx,
-            add: v.add,
-            spectacle_vertex,
-            reading: v.reading,
-            measured: v.measured,
-            target,
-            age: v.age,
-            settings: OrderSettings::default(),
-        };
-        let report = near_report(&input)?;
-        let card = near_card(&input, &report, near.inches.get());
-        let (result, order) = if v.add == Add::NONE {
-            let accommodation = fmt_dioptres(report.equivalent.accommodation_target);
-            (
-                format!("no add; accommodation {accommodation} at {}", plane_words(target)),
-                report.distance_at_target_ordered.to_string(),
-            )
-        } else {
-            let result = format!(
-                "add {} at {} (near {})",
-                fmt_power(report.add_at_target),
-                plane_words(target),
-                report.near_at_target
-            );
-            (
-                result,
-                format!(
-                    "{} add {}",
-                    report.distance_at_target_ordered,
-                    fmt_power(report.add_at_target_rounded)
-                ),
-            )
-        };
-        Ok((card, summary(eye, &rx, result, Some(order))))
-    });
+    let details = Remembered::new("lensplane.details.near");
+    let eyes = Eyes::new(
+        &q,
+        move |_, rx| {
+            let (spectacle_vertex, target) = planes.both()?;
+            let v = near.values()?;
+            let input = NearInput {
+                rx,
+                add: v.add,
+                spectacle_vertex,
+                reading: v.reading,
+                measured: v.measured,
+                target,
+                age: v.age,
+                settings: OrderSettings::default(),
+            };
+            let report = near_report(&input)?;
+            Ok((input, report))
+        },
+        move |(input, report)| near_card(input, report, near.inches.get()),
+    );
 
+    let shared = eyes.shared_warnings(|(_, r)| &r.warnings);
     let current = Memo::new(move |_| {
         near.add_to(
             eyes.add_to(Query::default())
@@ -375,47 +402,85 @@ pub fn NearPanel() -> impl IntoView {
                 .with("to", &planes.link_to()),
         )
     });
-    use_link_sync(Destination::Near, current, move |q: &Query| {
-        eyes.load(q);
-        planes.load(q.get("from"), q.get("to"));
-        near.load(q);
-    });
+    use_link_sync(Destination::Near, current);
 
     let text = Signal::derive(move || {
         eyes.text(&format!(
-            "Lensplane near vision: equivalent add {}",
+            "Lensplane · {} · equivalent add {}",
+            Destination::Near.title(),
             planes.target_words()
         ))
     });
-    let request =
-        Callback::new(move |label: String| eyes.save_request(Destination::Near, current.get_untracked(), label));
-    let noop = Callback::new(|_| ());
+    let request = Callback::new(move |label: String| {
+        eyes.save_request(
+            Destination::Near,
+            current.get_untracked(),
+            label,
+            |eye, (input, report)| {
+                let target = plane_words(input.target);
+                let (result, order) = if input.add == Add::NONE {
+                    let accommodation = fmt_dioptres(report.equivalent.accommodation_target);
+                    (
+                        format!("no add; accommodation {accommodation} at {target}"),
+                        report.distance_at_target_ordered.to_string(),
+                    )
+                } else {
+                    (
+                        format!(
+                            "add {} at {target} (near {})",
+                            fmt_power(report.add_at_target),
+                            report.near_at_target
+                        ),
+                        format!(
+                            "{} add {}",
+                            report.distance_at_target_ordered,
+                            fmt_power(report.add_at_target_rounded)
+                        ),
+                    )
+                };
+                summary(eye, &input.rx, result, Some(order))
+            },
+        )
+    });
     let add_msgs = Signal::derive(move || messages(near.add_parsed().map(|r| r.map(|p| p.notices))));
+    // What the add and age say together is shown once, under both fields.
+    let shared_near = Memo::new(move |_| {
+        shared.with(|w| {
+            let mut m = field_warnings(w, Field::Add);
+            m.extend(field_warnings(w, Field::Age));
+            m
+        })
+    });
     let reading_msgs = Signal::derive(move || messages(near.reading_parsed().map(|r| r.map(|p| p.notices))));
     let age_msgs = Signal::derive(move || messages(near.age_parsed().map(|r| r.map(|p| p.notices))));
 
     view! {
-        <h1>"Near add"</h1>
-        <p class="lede">"What a reading distance asks of the eye through the spectacles, with their add, and with contact lenses or a frame at another distance; and the add that keeps the same near effect there. Worked by the vergence chain, per principal meridian."</p>
+        <h1>{Destination::Near.title()}</h1>
+        <p class="lede">"The add that keeps the same near effect with contact lenses or another frame."</p>
         <div class="panel-grid">
             <div class="inputs">
-                <PlaneInputs planes=planes id_prefix="near" on_edit=noop/>
+                <PlaneInputs planes=planes id_prefix="near" from_label="Vertex distance of the spectacles worn" shared=shared/>
                 <fieldset class="near-task">
                     <legend>"Near task"</legend>
                     <TextField id="near-add" label="Spectacle add" value=near.add messages=add_msgs
                         step=StepKind::Add unit="D" placeholder="+2.00"/>
                     <TextField id="near-reading" label="Reading distance" value=near.reading messages=reading_msgs
-                        placeholder="40"/>
-                    {choice_pair("near-unit", "Reading distance in", "Centimetres", "Inches", near.inches)}
-                    {choice_pair("near-measured", "Reading distance measured from", "The spectacle plane", "The eye (cornea)", near.from_eye)}
-                    <TextField id="near-age" label="Age" placeholder="optional" value=near.age messages=age_msgs
-                        inputmode="numeric" unit="years" />
+                        placeholder="40">
+                        {choice_pair("near-unit", "Reading distance in", "cm", "in", near.inches, true)}
+                    </TextField>
+                    {choice_pair("near-measured", "Measured from", "Spectacles", "Eye", near.from_eye, false)}
+                    <div class="field-short">
+                        <TextField id="near-age" label="Age" placeholder="optional" value=near.age messages=age_msgs
+                            inputmode="numeric" unit="years" />
+                    </div>
+                    <ul class="warnings" hidden=move || shared_near.with(Vec::is_empty)>
+                        {move || shared_near.get().into_iter().map(|m| view! { <li>{m.text().to_string()}</li> }).collect_view()}
+                    </ul>
                 </fieldset>
-                <EyeEntryForm entry=eyes.right parsed=eyes.right_parsed id_prefix="near" on_edit=noop/>
-                <EyeEntryForm entry=eyes.left parsed=eyes.left_parsed id_prefix="near" on_edit=noop/>
+                <EyeEntries eyes=eyes id_prefix="near"/>
             </div>
             <div class="results">
-                <EyeResults eyes=eyes id_prefix="near" text=text request=request/>
+                <EyeResults eyes=eyes id_prefix="near" details=details text=text request=request/>
             </div>
         </div>
         <Cautions calculation=lensplane_core::Calculation::Near/>
@@ -447,39 +512,51 @@ mod tests {
 
     fn value<'a>(card: &'a Card, label: &str) -> &'a str {
         &card
-            .rows
+            .details
             .iter()
             .find(|r| r.label == label)
-            .unwrap_or_else(|| panic!("no row {label}: {:?}", card.rows))
+            .unwrap_or_else(|| panic!("no row {label}: {:?}", card.details))
             .value
     }
 
     #[test]
     fn without_an_add_the_card_leads_with_accommodation_and_leaves_out_the_add_rows() {
-        // N1 [textbook] of shared/optics-notes.md: −6.00 @ 12 mm, 40 cm from the lens: 2.4272 D in contact lenses.
+        // N1 [textbook] of shared/optics-notes.md: −6.00 @ 12 mm, 40 cm from the lens: 2.4272 D in contact lenses,
+        // 2.1162 D through the spectacles.
         let c = card(Rx::sphere_only(-6.0).unwrap(), 0.0, Some(50));
         assert_eq!(
-            (c.main_label.as_str(), c.main_value.as_str()),
-            ("Accommodation in contact lenses", "2.43 D")
+            (
+                c.headline.label.as_str(),
+                c.headline.value.as_str(),
+                c.headline.exact.as_str()
+            ),
+            ("Accommodation", "2.43 D", "2.12 D")
         );
-        assert!(c.reason.starts_with("-6.00 DS with no add: "), "{}", c.reason);
+        assert!(
+            c.why.starts_with("A myope needs more accommodation in contact lenses"),
+            "{}",
+            c.why
+        );
         for gone in [
-            "Orderable add",
+            "Equivalent add in quarter steps",
             "Relief the spectacle add gives at the eye",
-            "Near prescription, orderable",
+            "Near prescription in steps",
         ] {
             assert!(
-                c.rows.iter().all(|r| r.label != gone),
+                c.details.iter().all(|r| r.label != gone),
                 "{gone} should not be shown without an add"
             );
         }
         assert!(
-            c.rows.iter().any(|r| r.label == "Tentative add, average amplitude"),
+            c.details.iter().any(|r| r.label == "Tentative add, average amplitude"),
             "an age still gives tentative adds"
         );
         let with = card(Rx::sphere_only(-6.0).unwrap(), 2.5, None);
-        assert_eq!(with.main_label, "Equivalent add at the cornea (contact lens)");
-        assert!(with.rows.iter().any(|r| r.label == "Orderable add"));
+        assert_eq!(with.headline.label, "Equivalent add");
+        assert!(with
+            .details
+            .iter()
+            .any(|r| r.label == "Equivalent add in quarter steps"));
     }
 
     #[test]
@@ -487,18 +564,27 @@ mod tests {
         // N1 [textbook] and N3 [derived] of shared/optics-notes.md: −6.00 @ 12 mm, 40 cm from the lens,
         // add +2.50: through the spectacles 2.1162, contact lens 2.4272, relief 2.1162, contact-lens add 2.4272.
         let c = card(Rx::sphere_only(-6.0).unwrap(), 2.5, None);
-        assert_eq!(c.main_label, "Equivalent add at the cornea (contact lens)");
-        assert_eq!(c.main_value, "+2.43");
+        // At the cornea: the equivalent add in quarter steps, not an "orderable add".
+        assert_eq!(
+            (c.headline.value.as_str(), c.headline.exact.as_str()),
+            ("+2.50", "+2.43")
+        );
+        assert_eq!(c.headline.note, "Not a multifocal lens's add label");
+        assert!(c.details.iter().all(|r| !r.label.contains("Orderable")));
         assert_eq!(value(&c, "Demand at 40 cm"), "2.50 D");
         assert_eq!(value(&c, "Accommodation through the spectacles, no add"), "2.12 D");
         assert_eq!(value(&c, "Accommodation in contact lenses, no add"), "2.43 D");
         assert_eq!(value(&c, "Relief the spectacle add gives at the eye"), "2.12 D");
-        assert_eq!(value(&c, "Orderable add"), "+2.50");
+        assert_eq!(value(&c, "Equivalent add in quarter steps"), "+2.50");
         assert!(
-            c.reason
-                .starts_with("-6.00 DS with add +2.50: a myope in contact lenses needs more accommodation"),
+            c.why
+                .starts_with("A myope needs more accommodation in contact lenses: 2.43 D against 2.12 D in spectacles"),
             "{}",
-            c.reason
+            c.why
+        );
+        assert_eq!(
+            c.copy,
+            "add +2.50 (contact lens, from -6.00 DS with add +2.50 at 12 mm, reading at 40 cm)"
         );
     }
 
@@ -506,7 +592,7 @@ mod tests {
     fn n4_is_not_the_shortcut() {
         // N4 [derived]: +6.00, add +2.50 → 2.4272 at the cornea; the shortcut V(F + A) − V(F) gives 3.0000.
         let c = card(Rx::sphere_only(6.0).unwrap(), 2.5, None);
-        assert_eq!(c.main_value, "+2.43");
+        assert_eq!(c.headline.exact, "+2.43");
         assert_eq!(value(&c, "Relief the spectacle add gives at the eye"), "2.81 D");
     }
 
@@ -516,7 +602,7 @@ mod tests {
         let c = card(Rx::sphere_only(0.0).unwrap(), 2.0, Some(50));
         assert_eq!(value(&c, "Amplitude at age 50 (Hofstetter)"), "2.50 / 3.50 / 5.00 D");
         let t = c
-            .rows
+            .details
             .iter()
             .find(|r| r.label == "Tentative add, minimum amplitude")
             .unwrap();
@@ -527,7 +613,7 @@ mod tests {
             t.detail
         );
         assert!(card(Rx::sphere_only(0.0).unwrap(), 2.0, None)
-            .rows
+            .details
             .iter()
             .all(|r| !r.label.starts_with("Amplitude")));
     }
@@ -536,13 +622,13 @@ mod tests {
     fn meridian_rows_only_when_there_is_a_cylinder() {
         let sph = card(Rx::sphere_only(-6.0).unwrap(), 2.5, None);
         assert!(!sph
-            .rows
+            .details
             .iter()
             .any(|r| r.label.starts_with("Meridian") || r.label == "Spherical equivalent"));
         let cyl = card(Rx::new(-6.0, -2.0, 180).unwrap(), 2.5, None);
         assert_eq!(value(&cyl, "Spherical equivalent"), "-7.00");
         // The −6.00 meridian carries N1's figures [textbook].
-        let m = cyl.rows.iter().find(|r| r.label == "Meridian 180°").unwrap();
+        let m = cyl.details.iter().find(|r| r.label == "Meridian 180°").unwrap();
         assert_eq!(m.value, "-6.00");
         assert!(
             m.detail
@@ -550,11 +636,11 @@ mod tests {
             "{}",
             m.detail
         );
-        assert_eq!(value(&cyl, "Meridian 90°"), "-8.00");
+        assert_eq!(value(&cyl, "Meridian 090°"), "-8.00");
     }
 
     #[test]
-    fn panel_wide_cautions_are_not_repeated_in_every_card() {
+    fn standing_cautions_are_not_repeated_in_every_card() {
         let c = card(Rx::sphere_only(-6.0).unwrap(), 2.5, Some(50));
         assert!(
             c.warnings

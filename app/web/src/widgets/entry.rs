@@ -2,7 +2,8 @@
 //! typed or pasted. Whichever the user edited last is the source; the other
 //! follows when it can without losing anything typed.
 
-use super::{Message, TextField};
+use super::{Card, Message, Shown, TextField};
+use crate::prefs::{on_toggle, FieldsShown, Remembered};
 use lensplane_core::{fmt_power, fmt_sphere, parse_rx, Error, Eye, Field, Parsed, Rx, StepKind};
 use leptos::prelude::*;
 
@@ -165,19 +166,36 @@ fn slot_for(field: Field, source: Source) -> Slot {
     }
 }
 
-/// The entry form for one eye.
+/// The compact result the entry shows while it is being typed into (sticky
+/// on a phone, so the answer stays in view above the keyboard).
+/// Its place is kept when there is nothing to show, so the field never moves
+/// under the thumb when the first result appears.
+fn glance_text(shown: &Shown<Card>) -> (String, &'static str) {
+    match shown {
+        Shown::Fresh(c) => (c.headline.glance(), "glance"),
+        Shown::Stale(c, _) => (format!("Last complete entry: {}", c.headline.glance()), "glance stale"),
+        Shown::Failed(_) => ("No result: see the message at the field".into(), "glance empty"),
+        Shown::Empty => ("No prescription entered".into(), "glance empty"),
+    }
+}
+
+/// The entry form for one eye: the one-line prescription (the fast path),
+/// the eye's answer at a glance, and the separate fields one tap away.
 #[component]
 pub fn EyeEntryForm(
     entry: EyeEntry,
     /// The parse result the panel computes from `entry` (shared, so it parses once).
     parsed: Memo<Option<Result<Parsed<Rx>, Error>>>,
+    /// This eye's result, shown compactly beside the entry.
+    result: Memo<Shown<Card>>,
     /// Prefix for element ids (the panel's name).
     id_prefix: &'static str,
-    /// Called after any edit.
-    on_edit: Callback<()>,
 ) -> impl IntoView {
     let (word, letter) = eye_words(entry.eye);
     let lower = word.to_ascii_lowercase();
+    let fields = use_context::<FieldsShown>()
+        .map(|f| f.0)
+        .unwrap_or_else(|| Remembered::new("lensplane.fields"));
     let messages = move |slot: Slot| {
         Signal::derive(move || {
             let source = entry.source.get();
@@ -193,35 +211,36 @@ pub fn EyeEntryForm(
             }
         })
     };
-    let field_edit = Callback::new(move |_| {
-        entry.on_field_edit();
-        on_edit.run(());
-    });
-    let line_edit = Callback::new(move |_| {
-        entry.on_line_edit();
-        on_edit.run(());
-    });
+    let field_edit = Callback::new(move |_| entry.on_field_edit());
+    let line_edit = Callback::new(move |_| entry.on_line_edit());
+    let glance = Memo::new(move |_| result.with(glance_text));
     let id = |what: &str| format!("{id_prefix}-{lower}-{what}");
     view! {
         <fieldset class="eye-entry">
             <legend>{format!("{word} eye ({letter})")}</legend>
-            <TextField id=id("line") label="Prescription" name=format!("{word} prescription")
+            <p class=move || glance.with(|g| g.1)>{move || glance.with(|g| g.0.clone())}</p>
+            <TextField id=id("line") label=format!("{word} prescription") label_hidden=true
                 value=entry.line messages=messages(Slot::Line) inputmode="text"
                 placeholder="-8.00 -2.00 x180" on_edit=line_edit/>
-            <div class="rx-fields">
-                <TextField id=id("sphere") label="Sphere" name=format!("{word} sphere") value=entry.sphere
-                    messages=messages(Slot::Sphere) signed=true step=StepKind::Sphere unit="D"
-                    placeholder="-2.00" on_edit=field_edit/>
-                <TextField id=id("cylinder") label="Cylinder" name=format!("{word} cylinder") value=entry.cylinder
-                    messages=messages(Slot::Cylinder) signed=true step=StepKind::Cylinder unit="D"
-                    placeholder="-0.75" on_edit=field_edit/>
-                <TextField id=id("axis") label="Axis" name=format!("{word} axis") value=entry.axis
-                    messages=messages(Slot::Axis) step=StepKind::Axis(5) unit="°" inputmode="numeric"
-                    placeholder="180" on_edit=field_edit/>
-            </div>
-            <button type="button" class="button quiet" on:click=move |_| { entry.clear(); on_edit.run(()); }>
+            <div class="entry-tools">
+            <details class="rx-fields-toggle" prop:open=move || fields.is_open() on:toggle=on_toggle(fields)>
+                <summary>"Separate fields"</summary>
+                <div class="rx-fields">
+                    <TextField id=id("sphere") label="Sphere" name=format!("{word} sphere") value=entry.sphere
+                        messages=messages(Slot::Sphere) signed=true step=StepKind::Sphere unit="D"
+                        placeholder="-2.00" on_edit=field_edit/>
+                    <TextField id=id("cylinder") label="Cylinder" name=format!("{word} cylinder") value=entry.cylinder
+                        messages=messages(Slot::Cylinder) signed=true step=StepKind::Cylinder unit="D"
+                        placeholder="-0.75" on_edit=field_edit/>
+                    <TextField id=id("axis") label="Axis" name=format!("{word} axis") value=entry.axis
+                        messages=messages(Slot::Axis) step=StepKind::Axis(5) unit="°" inputmode="numeric"
+                        placeholder="180" on_edit=field_edit/>
+                </div>
+            </details>
+            <button type="button" class="button quiet" on:click=move |_| entry.clear()>
                 {format!("Clear {lower} eye")}
             </button>
+            </div>
         </fieldset>
     }
 }

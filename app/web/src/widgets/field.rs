@@ -13,6 +13,9 @@ pub fn TextField(
     /// The visible label.
     #[prop(into)]
     label: String,
+    /// Hide the visible label (the group's legend says it already); it stays the accessible name.
+    #[prop(optional)]
+    label_hidden: bool,
     /// The accessible name when it must say more than the label (e.g. "Right sphere").
     #[prop(optional, into)]
     name: Option<String>,
@@ -35,6 +38,9 @@ pub fn TextField(
     /// Called after every edit (typing, ±, steps).
     #[prop(optional, into)]
     on_edit: Option<Callback<()>>,
+    /// Controls shown after the input in the same row (a unit choice).
+    #[prop(optional)]
+    children: Option<Children>,
 ) -> impl IntoView {
     let name = name.unwrap_or_else(|| label.clone());
     let msg_id = format!("{id}-msg");
@@ -74,7 +80,7 @@ pub fn TextField(
     let described = msg_id.clone();
     view! {
         <div class="field" class:has-error=has_error>
-            <label for=id.clone()>{label.clone()}</label>
+            <label for=id.clone() class:visually-hidden=label_hidden>{label.clone()}</label>
             <div class="field-row">
                 {sign_button}
                 <input
@@ -94,11 +100,11 @@ pub fn TextField(
                 />
                 {(!unit.is_empty()).then(|| view! { <span class="unit" aria-hidden="true">{unit}</span> })}
                 {steppers}
+                {children.map(|c| c())}
             </div>
             <p id=msg_id class="field-msg" aria-live="polite">
                 {move || messages.get().into_iter().map(|m| {
-                    let class = if m.is_error() { "error" } else { "notice" };
-                    view! { <span class=class>{m.text().to_string()}</span> }
+                    view! { <span class=m.class()>{m.text().to_string()}</span> }
                 }).collect_view()}
             </p>
         </div>

@@ -1,6 +1,6 @@
 //! Messages at fields, warning lists and the standing cautions.
 
-use lensplane_core::{Error, Notice};
+use lensplane_core::{Error, Field, Notice, Place, Warning};
 use leptos::prelude::*;
 
 /// Something to show under a field.
@@ -10,6 +10,8 @@ pub enum Message {
     Error(String),
     /// The input was read, with something worth knowing.
     Notice(String),
+    /// The input stands, but the practitioner should look again.
+    Warning(String),
 }
 
 impl Message {
@@ -25,11 +27,39 @@ impl Message {
         matches!(self, Message::Error(_))
     }
 
-    pub fn text(&self) -> &str {
+    /// The class it is shown with.
+    pub fn class(&self) -> &'static str {
         match self {
-            Message::Error(t) | Message::Notice(t) => t,
+            Message::Error(_) => "error",
+            Message::Notice(_) => "notice",
+            Message::Warning(_) => "warning",
         }
     }
+
+    pub fn text(&self) -> &str {
+        match self {
+            Message::Error(t) | Message::Notice(t) | Message::Warning(t) => t,
+        }
+    }
+}
+
+/// The warnings shown beside one eye's result (the others are at the
+/// shared inputs or at the entry already).
+pub fn result_warnings(warnings: &[Warning]) -> Vec<String> {
+    warnings
+        .iter()
+        .filter(|w| w.place() == Place::Result)
+        .map(|w| w.message.clone())
+        .collect()
+}
+
+/// The warnings about shared inputs in `warnings` that belong at `field`.
+pub fn field_warnings(warnings: &[Warning], field: Field) -> Vec<Message> {
+    warnings
+        .iter()
+        .filter(|w| w.place() == Place::SharedInput && w.field == field)
+        .map(|w| Message::Warning(w.message.clone()))
+        .collect()
 }
 
 /// The standing cautions of a calculation's page, as the core scopes them.

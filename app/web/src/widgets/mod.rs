@@ -10,11 +10,11 @@ mod planes;
 mod save;
 mod shown;
 
-pub use card::{Card, EyeCard, Row};
+pub use card::{Alternative, Card, EyeCard, Headline, Row};
 pub use cross::PowerCrossDiagram;
 pub use entry::{eye_words, EyeEntry, EyeEntryForm};
 pub use field::TextField;
-pub use messages::{Cautions, Message};
+pub use messages::{field_warnings, result_warnings, Cautions, Message};
 pub use planes::{PlaneInputs, Planes};
 pub use save::SaveBar;
 pub use shown::{shown_memo, Shown, ShownNote};

@@ -1,8 +1,8 @@
 //! Where the prescription was measured or worn (`from`) and where it goes
 //! (`to`: the cornea for a contact lens, or another vertex distance).
 
-use super::{Message, TextField};
-use lensplane_core::{parse_vertex_mm, Error, Field, Parsed, VertexDistance};
+use super::{field_warnings, Message, TextField};
+use lensplane_core::{parse_vertex_mm, Error, Field, Parsed, VertexDistance, Warning};
 use leptos::prelude::*;
 
 /// The two planes of a calculation, as typed.
@@ -83,33 +83,46 @@ fn messages_of(result: Result<Vec<lensplane_core::Notice>, Error>) -> Vec<Messag
     }
 }
 
-/// The plane inputs of the vertex-type panels.
+/// The plane inputs of the vertex-type panels. `from_label` says whose
+/// vertex distance it is ("Vertex distance of the refraction").
 #[component]
-pub fn PlaneInputs(planes: Planes, id_prefix: &'static str, on_edit: Callback<()>) -> impl IntoView {
-    let from_msgs = Signal::derive(move || messages_of(planes.from_parsed().map(|p| p.notices)));
-    let to_msgs = Signal::derive(move || messages_of(planes.to_parsed().map(|p| p.notices)));
+pub fn PlaneInputs(
+    planes: Planes,
+    id_prefix: &'static str,
+    from_label: &'static str,
+    /// Warnings about the planes from the eyes' reports (an unusual spectacle distance).
+    shared: Memo<Vec<Warning>>,
+) -> impl IntoView {
+    let with_warnings = move |mut m: Vec<Message>, field: Field| {
+        shared.with(|w| m.extend(field_warnings(w, field)));
+        m
+    };
+    let from_msgs =
+        Signal::derive(move || with_warnings(messages_of(planes.from_parsed().map(|p| p.notices)), Field::VertexFrom));
+    let to_msgs =
+        Signal::derive(move || with_warnings(messages_of(planes.to_parsed().map(|p| p.notices)), Field::VertexTo));
     let group = format!("{id_prefix}-target");
     view! {
         <fieldset class="planes">
             <legend>"Planes"</legend>
-            <TextField id=format!("{id_prefix}-from") label="Vertex distance measured at"
-                value=planes.from messages=from_msgs unit="mm" placeholder="12" on_edit=on_edit/>
-            <div class="target" role="radiogroup" aria-labelledby=format!("{group}-label")>
-                <span id=format!("{group}-label") class="group-label">"Move it to"</span>
+            <TextField id=format!("{id_prefix}-from") label=from_label
+                value=planes.from messages=from_msgs unit="mm" placeholder="12"/>
+            <div class="target row" role="radiogroup" aria-labelledby=format!("{group}-label")>
+                <span id=format!("{group}-label") class="group-label">"Move to"</span>
                 <label class="choice">
                     <input type="radio" name=group.clone() prop:checked=move || planes.to_cornea.get()
-                        on:change=move |_| { planes.to_cornea.set(true); on_edit.run(()); }/>
-                    "Contact lens (cornea, 0 mm)"
+                        on:change=move |_| planes.to_cornea.set(true)/>
+                    "Contact lens"
                 </label>
                 <label class="choice">
                     <input type="radio" name=group.clone() prop:checked=move || !planes.to_cornea.get()
-                        on:change=move |_| { planes.to_cornea.set(false); on_edit.run(()); }/>
-                    "Spectacles at another distance"
+                        on:change=move |_| planes.to_cornea.set(false)/>
+                    "Spectacles"
                 </label>
             </div>
             <Show when=move || !planes.to_cornea.get()>
-                <TextField id=format!("{id_prefix}-to") label="Target vertex distance" value=planes.to_frame
-                    messages=to_msgs unit="mm" placeholder="14" on_edit=on_edit/>
+                <TextField id=format!("{id_prefix}-to") label="Spectacle vertex distance" value=planes.to_frame
+                    messages=to_msgs unit="mm" placeholder="14"/>
             </Show>
         </fieldset>
     }

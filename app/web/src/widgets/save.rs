@@ -66,13 +66,15 @@ pub fn SaveBar(
         <form class="save-bar" on:submit=move |ev| { ev.prevent_default(); save(); }>
             <div class="field">
                 <label for=label_id.clone()>"Label (optional)"</label>
-                <input id=label_id type="text" maxlength="60" autocomplete="off" enterkeyhint="done"
-                    aria-describedby=hint_id.clone()
-                    prop:value=move || label.get() on:input=move |ev| label.set(event_target_value(&ev))/>
-                <p id=hint_id class="field-msg hint">"No names or patient identifiers: a room, a case number of your own, a note."</p>
+                <div class="field-row">
+                    <input id=label_id type="text" maxlength="60" autocomplete="off" enterkeyhint="done"
+                        aria-describedby=hint_id.clone()
+                        prop:value=move || label.get() on:input=move |ev| label.set(event_target_value(&ev))/>
+                    <button type="submit" class="button primary">"Save to history"</button>
+                </div>
+                <p id=hint_id class="field-msg hint">"No names or patient identifiers."</p>
             </div>
             <div class="actions">
-                <button type="submit" class="button primary">"Save to history"</button>
                 <button type="button" class="button" on:click=copy>"Copy as text"</button>
                 <button type="button" class="button" on:click=copy_link>"Copy link"</button>
             </div>

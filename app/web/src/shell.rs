@@ -109,7 +109,8 @@ fn skip_to_main(ev: leptos::ev::MouseEvent) {
 pub fn App() -> impl IntoView {
     let base = deploy_base();
     provide_context(Base(base.clone()));
-    provide_context(History::new());
+    // Opened once, here: the manifest now, the months in slices after the first screen.
+    provide_context(History::open());
     let carry = RwSignal::new(Query::default());
     provide_context(Carry(carry));
     let link_base = base.clone();

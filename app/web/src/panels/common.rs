@@ -97,13 +97,13 @@ impl Eyes {
     }
 
     /// What to save, or `None` when neither eye has a current result.
-    pub fn save_request(&self, panel: Destination, query: Query, label: String) -> Option<SaveRequest> {
+    pub fn save_request(&self, destination: Destination, query: Query, label: String) -> Option<SaveRequest> {
         let eyes: Vec<EyeSummary> = [self.right_summary.get_untracked(), self.left_summary.get_untracked()]
             .into_iter()
             .flatten()
             .collect();
         (!eyes.is_empty()).then(|| SaveRequest {
-            panel,
+            destination,
             query,
             label,
             eyes,
@@ -114,7 +114,7 @@ impl Eyes {
 /// The summary line of one eye for the history.
 pub fn summary(eye: Eye, input: &Rx, result: String, order: Option<String>) -> EyeSummary {
     EyeSummary {
-        eye: eye_words(eye).1.into(),
+        eye,
         input: input.to_string(),
         result,
         order,

@@ -7,7 +7,8 @@
 //! typed `get`/`set` panic there (`expect_throw`), and with its raw handle
 //! it adds nothing to these calls.
 
-use super::store::{Backend, Fault};
+use super::error::StoreError;
+use super::store::Backend;
 use wasm_bindgen::JsValue;
 
 pub struct Browser {
@@ -23,31 +24,31 @@ impl Browser {
 }
 
 /// A full quota, or anything else the browser refused.
-fn fault(err: JsValue) -> Fault {
+fn fault(err: JsValue) -> StoreError {
     let name = js_sys::Reflect::get(&err, &JsValue::from_str("name"))
         .ok()
         .and_then(|n| n.as_string())
         .unwrap_or_default();
     if name == "QuotaExceededError" || name == "NS_ERROR_DOM_QUOTA_REACHED" {
-        Fault::Quota
+        StoreError::Full
     } else {
-        Fault::Refused
+        StoreError::Refused
     }
 }
 
 impl Backend for Browser {
-    fn read(&self, key: &str) -> Result<Option<String>, Fault> {
+    fn read(&self, key: &str) -> Result<Option<String>, StoreError> {
         self.storage
             .as_ref()
-            .ok_or(Fault::Unavailable)?
+            .ok_or(StoreError::Unavailable)?
             .get_item(key)
             .map_err(fault)
     }
 
-    fn write(&mut self, key: &str, value: &str) -> Result<(), Fault> {
+    fn write(&mut self, key: &str, value: &str) -> Result<(), StoreError> {
         self.storage
             .as_ref()
-            .ok_or(Fault::Unavailable)?
+            .ok_or(StoreError::Refused)?
             .set_item(key, value)
             .map_err(fault)
     }

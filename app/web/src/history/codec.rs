@@ -11,6 +11,7 @@
 //! link: `{"id","time","link":"/vertex?r=…","label","eyes":[{"eye","input","result","order"}]}`.
 
 use super::entry::{Entry, EyeSummary, Invalid};
+use super::error::BadFile;
 use super::json::{key, quote, Malformed, Reader};
 use crate::link::Destination;
 use lensplane_core::Eye;
@@ -174,48 +175,32 @@ impl MonthReader {
     }
 }
 
-/// A whole stored month's entries.
-pub fn read_month(text: &str) -> Result<Vec<Entry>, Unreadable> {
-    let mut list = Vec::new();
-    MonthReader::new(text.into()).read(usize::MAX, &mut list)?;
-    Ok(list)
-}
-
-/// Schema 1's list of entries, in the current types.
-pub fn read_v1(text: &str) -> Result<Vec<Entry>, Unreadable> {
+/// A whole list of entries: a stored month, or (`v1`) schema 1's list.
+pub fn read_list(text: &str, v1: bool) -> Result<Vec<Entry>, Unreadable> {
     let mut r = Reader::new(text);
     let mut list = Vec::new();
     if !open_list(&mut r)? {
-        read_entries(&mut r, true, usize::MAX, &mut list)?;
+        read_entries(&mut r, v1, usize::MAX, &mut list)?;
     }
     r.end()?;
     Ok(list)
 }
 
-/// Reads the entries of an exported file's list at the reader: every entry,
-/// even after one that cannot be kept (`first_invalid` gets the first
-/// reason); stops at the first one that is not an entry at all, giving its
-/// number (from 1) in `broken`.
-pub fn read_file_entries(
-    r: &mut Reader,
-    first_invalid: &mut Option<Invalid>,
-    broken: &mut Option<usize>,
-) -> Result<Vec<Entry>, Malformed> {
+/// Reads an exported file's list of entries at the reader, stopping at the
+/// first one that is not an entry or cannot be kept, with why in `stopped`.
+pub fn read_file_entries(r: &mut Reader, stopped: &mut Option<BadFile>) -> Result<Vec<Entry>, Malformed> {
     let mut list = Vec::new();
-    let mut n = 0;
     r.array(1, |r| {
-        n += 1;
-        match read_entry(r, false) {
-            Ok(e) => list.push(e),
-            Err(Unreadable::Invalid(why)) => {
-                first_invalid.get_or_insert(why);
+        let why = match read_entry(r, false) {
+            Ok(e) => {
+                list.push(e);
+                return Ok(());
             }
-            Err(Unreadable::Shape) => {
-                *broken = Some(n);
-                return Err(Malformed);
-            }
-        }
-        Ok(())
+            Err(Unreadable::Shape) => BadFile::Incomplete(list.len() + 1),
+            Err(Unreadable::Invalid(why)) => BadFile::Invalid(why),
+        };
+        *stopped = Some(why);
+        Err(Malformed)
     })?;
     Ok(list)
 }
@@ -259,9 +244,9 @@ pub fn write_entry(out: &mut String, e: &Entry) {
 }
 
 /// Appends `[entry, …]`: a stored month, or an exported file's entries.
-pub fn write_entries<'a>(out: &mut String, entries: impl IntoIterator<Item = &'a Entry>) {
+pub fn write_entries(out: &mut String, entries: &[Entry]) {
     out.push('[');
-    for (i, e) in entries.into_iter().enumerate() {
+    for (i, e) in entries.iter().enumerate() {
         if i > 0 {
             out.push(',');
         }
@@ -273,6 +258,14 @@ pub fn write_entries<'a>(out: &mut String, entries: impl IntoIterator<Item = &'a
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    fn month(text: &str) -> Result<Vec<Entry>, Unreadable> {
+        read_list(text, false)
+    }
+
+    fn schema_one(text: &str) -> Result<Vec<Entry>, Unreadable> {
+        read_list(text, true)
+    }
 
     const EYE: &str = r#"{"s":"R","i":"-8.00 -2.00 ×180","r":"-7.30 -1.63 ×180"}"#;
 
@@ -298,8 +291,8 @@ mod tests {
             right_and_left,
         );
         let mut out = String::new();
-        write_entries(&mut out, [&e]);
-        assert_eq!(read_month(&out), Ok(vec![e.clone()]));
+        write_entries(&mut out, std::slice::from_ref(&e));
+        assert_eq!(month(&out), Ok(vec![e.clone()]));
         let checked: serde_json::Value = serde_json::from_str(&out).unwrap();
         assert_eq!(checked[0]["e"][1]["o"], "-7.25 -1.75 ×180");
         assert!(checked[0]["e"][0].get("o").is_none());
@@ -320,7 +313,7 @@ mod tests {
             r#"[{"\u0069d":"\"q\" \\ é \ud83d\ude00","t":1714745100000,"p":"vertex","q":"","l":"L\u00e9","e":[{"s":"L","i":"","r":"","o":null,"x":0}]}]"#.to_string(),
             r#"[{"id":"a","t":1714745100000,"p":"vertex","q":"","e":[{"s":"L","i":"","r":"","o":""},{"s":"R","i":"1","r":"2","o":"3"}]}]"#.to_string(),
         ];
-        let read: Vec<Entry> = texts.iter().map(|t| read_month(t).unwrap().remove(0)).collect();
+        let read: Vec<Entry> = texts.iter().map(|t| month(t).unwrap().remove(0)).collect();
         assert_eq!((read[0].label.as_str(), read[0].query.as_str()), ("Room 2", "r=-8.00"));
         assert_eq!((read[1].destination, read[1].eyes.len()), (Destination::Near, 2));
         assert_eq!(
@@ -335,8 +328,8 @@ mod tests {
         );
         assert_eq!(read[4].eyes[0].order, None, "an empty orderable value is none");
         assert_eq!(read[4].eyes[1].order.as_deref(), Some("3"));
-        assert_eq!(read_month("[]"), Ok(vec![]));
-        assert_eq!(read_month(" [ ] "), Ok(vec![]));
+        assert_eq!(month("[]"), Ok(vec![]));
+        assert_eq!(month(" [ ] "), Ok(vec![]));
     }
 
     #[test]
@@ -361,7 +354,7 @@ mod tests {
             String::new(),
         ];
         for t in &shape {
-            assert_eq!(read_month(t), Err(Unreadable::Shape), "{t}");
+            assert_eq!(month(t), Err(Unreadable::Shape), "{t}");
         }
         let invalid = [
             (
@@ -390,7 +383,7 @@ mod tests {
             ),
         ];
         for (t, why) in invalid {
-            assert_eq!(read_month(&t), Err(Unreadable::Invalid(why)), "{t}");
+            assert_eq!(month(&t), Err(Unreadable::Invalid(why)), "{t}");
         }
     }
 
@@ -438,7 +431,7 @@ mod tests {
             "eyes":[{"eye":"R","input":"+1.00 DS","result":"+3.00 DS","order":null}]},
             {"id":"a2","time":1714745160,"link":"/vertex","label":null,"extra":[1],
             "eyes":[{"eye":"L","input":"-4.00 DS","result":"-3.82 DS","order":"-3.75 DS"}]}]"#;
-        let list = read_v1(old).unwrap();
+        let list = schema_one(old).unwrap();
         assert_eq!(list[0].saved_at_ms, 1_714_745_100_000);
         assert_eq!(list[0].destination, Destination::Near);
         assert_eq!(list[0].query, "r=%2B1.00&add=2.00");
@@ -460,13 +453,13 @@ mod tests {
         assert_eq!(list[1].eyes[0].order.as_deref(), Some("-3.75 DS"));
         // Schema 1's keys are not schema 2's.
         assert_eq!(
-            read_v1(&format!(
+            schema_one(&format!(
                 r#"[{{"id":"a","t":1714745100000,"p":"vertex","q":"","e":[{EYE}]}}]"#
             )),
             Err(Unreadable::Shape)
         );
         assert_eq!(
-            read_v1(r#"[{"id":"a","time":9223372036854776,"link":"/vertex","eyes":[]}]"#),
+            schema_one(r#"[{"id":"a","time":9223372036854776,"link":"/vertex","eyes":[]}]"#),
             Err(Unreadable::Shape)
         );
     }

@@ -34,24 +34,21 @@ pub fn unreadable_json(kept: &[(String, String)]) -> String {
 }
 
 /// Reads an exported file; every entry is checked before anything is used.
-/// The fields may come in any order; when several things are wrong, the
-/// format and version are reported first, then a damaged entry, then the
-/// first entry that cannot be kept.
+/// The fields may come in any order (Lensplane writes the format and the
+/// version first); a wrong format or version is reported before a problem
+/// with an entry read after them.
 pub fn read_export(text: &str) -> Result<Vec<Entry>, StoreError> {
     if text.len() > IMPORT_MAX {
         return Err(StoreError::TooLarge);
     }
-    let (mut format, mut schema, mut entries) = (None, None, None);
-    let (mut invalid, mut broken) = (None, None);
+    let (mut format, mut schema, mut entries, mut stopped) = (None, None, None, None);
     let mut r = Reader::new(text);
     let whole = r
         .object(0, |r, key| {
             match key {
                 "format" if r.peek() == Some(b'"') => format = Some(r.string()? == FORMAT),
                 "schema" if r.at_number() => schema = Some(r.int()?),
-                "entries" if r.peek() == Some(b'[') => {
-                    entries = Some(read_file_entries(r, &mut invalid, &mut broken)?);
-                }
+                "entries" if r.peek() == Some(b'[') => entries = Some(read_file_entries(r, &mut stopped)?),
                 _ => r.skip_value(1)?,
             }
             Ok(())
@@ -63,14 +60,11 @@ pub fn read_export(text: &str) -> Result<Vec<Entry>, StoreError> {
         (Some(true), _) => Some(BadFile::Unsupported),
         _ => Some(BadFile::NotExport),
     };
-    let why = match (whole, broken) {
+    let why = match (whole, stopped) {
         (Err(_), None) => Some(BadFile::NotJson),
-        // Reading stopped at a damaged entry before the file said what it is.
-        (Err(_), Some(n)) if format != Some(false) && schema.is_none() => Some(BadFile::Incomplete(n)),
-        _ => version
-            .or(broken.map(BadFile::Incomplete))
-            .or(entries.is_none().then_some(BadFile::NoEntries))
-            .or(invalid.map(BadFile::Invalid)),
+        // Reading stopped at an entry before the file said what it is.
+        (Err(_), Some(entry)) if format != Some(false) && schema.is_none() => Some(entry),
+        (_, stopped) => version.or(stopped).or(entries.is_none().then_some(BadFile::NoEntries)),
     };
     match why {
         Some(why) => Err(StoreError::BadImport(why)),

@@ -18,11 +18,10 @@
 //! untouched, and the in-memory history is rolled back to match.
 
 use super::calendar::{month_of, month_span};
-use super::codec::{read_month, read_v1, write_entries, MonthReader, SCHEMA};
+use super::codec::{read_list, write_entries, MonthReader, SCHEMA};
 use super::entry::{entries_words, Entry};
 use super::error::StoreError;
 use super::json::{pairs, read_pairs, Reader};
-use std::collections::BTreeMap;
 use std::fmt;
 
 pub const MANIFEST_KEY: &str = "lensplane.history";
@@ -31,90 +30,15 @@ pub const ASIDE_KEY: &str = "lensplane.history.aside";
 pub const V1_KEY: &str = "lensplane.history.1";
 pub const PERSIST_ASKED_KEY: &str = "lensplane.persist-asked";
 
-/// What a storage backend can report.
-#[derive(Clone, Copy, Debug, PartialEq)]
-pub enum Fault {
-    /// No storage at all (disabled, or throwing as some private modes do).
-    Unavailable,
-    /// The browser's quota is used up.
-    Quota,
-    /// Anything else the browser refused.
-    Refused,
-}
-
-impl From<Fault> for StoreError {
-    fn from(f: Fault) -> StoreError {
-        match f {
-            Fault::Quota => StoreError::Full,
-            Fault::Unavailable | Fault::Refused => StoreError::Refused,
-        }
-    }
-}
-
-/// A key/value text store (localStorage in the browser).
+/// A key/value text store (localStorage in the browser). A read fails with
+/// [`StoreError::Unavailable`], a write with [`StoreError::Full`] or
+/// [`StoreError::Refused`].
 pub trait Backend {
-    fn read(&self, key: &str) -> Result<Option<String>, Fault>;
-    fn write(&mut self, key: &str, value: &str) -> Result<(), Fault>;
+    fn read(&self, key: &str) -> Result<Option<String>, StoreError>;
+    fn write(&mut self, key: &str, value: &str) -> Result<(), StoreError>;
     fn remove(&mut self, key: &str);
     /// Every key present (to recover months when the manifest is unreadable).
     fn keys(&self) -> Vec<String>;
-}
-
-/// An in-memory backend with injectable faults and a quota, for tests.
-#[derive(Clone, Debug, Default)]
-pub struct Memory {
-    pub map: BTreeMap<String, String>,
-    /// Total characters of keys and values allowed, like the browser's quota.
-    pub quota: Option<usize>,
-    pub unavailable: bool,
-    /// Writes left before every write is refused (None: never).
-    pub writes_left: Option<usize>,
-}
-
-impl Memory {
-    pub fn used(&self) -> usize {
-        self.map
-            .iter()
-            .map(|(k, v)| k.chars().count() + v.chars().count())
-            .sum()
-    }
-}
-
-impl Backend for Memory {
-    fn read(&self, key: &str) -> Result<Option<String>, Fault> {
-        if self.unavailable {
-            return Err(Fault::Unavailable);
-        }
-        Ok(self.map.get(key).cloned())
-    }
-
-    fn write(&mut self, key: &str, value: &str) -> Result<(), Fault> {
-        if self.unavailable {
-            return Err(Fault::Unavailable);
-        }
-        if let Some(left) = self.writes_left.as_mut() {
-            if *left == 0 {
-                return Err(Fault::Refused);
-            }
-            *left -= 1;
-        }
-        if let Some(quota) = self.quota {
-            let old = self.map.get(key).map_or(0, |v| key.chars().count() + v.chars().count());
-            if self.used() - old + key.chars().count() + value.chars().count() > quota {
-                return Err(Fault::Quota);
-            }
-        }
-        self.map.insert(key.to_string(), value.to_string());
-        Ok(())
-    }
-
-    fn remove(&mut self, key: &str) {
-        self.map.remove(key);
-    }
-
-    fn keys(&self) -> Vec<String> {
-        self.map.keys().cloned().collect()
-    }
 }
 
 /// Whether what is saved outlives the session.
@@ -403,7 +327,7 @@ impl<B: Backend> Store<B> {
             let n: u64 = key[CHUNK_PREFIX.len()..].parse().unwrap_or(0);
             self.manifest.next = self.manifest.next.max(n + 1);
             if let Ok(Some(text)) = self.backend.read(key) {
-                match read_month(&text) {
+                match read_list(&text, false) {
                     Ok(list) => found.extend(list),
                     Err(_) => unreadable.push((key.clone(), text)),
                 }
@@ -440,7 +364,7 @@ impl<B: Backend> Store<B> {
         let Ok(Some(text)) = self.backend.read(V1_KEY) else {
             return;
         };
-        let Ok(list) = read_v1(&text) else {
+        let Ok(list) = read_list(&text, true) else {
             return unreadable.push((V1_KEY.into(), text));
         };
         self.entries = list;
@@ -508,16 +432,16 @@ impl<B: Backend> Store<B> {
             let mut text = String::new();
             write_entries(&mut text, &self.entries[from..to]);
             fresh.push(key.clone());
-            if let Err(f) = self.backend.write(&key, &text) {
+            if let Err(e) = self.backend.write(&key, &text) {
                 self.remove_all(&fresh);
-                return Err(f.into());
+                return Err(e);
             }
             next.chunks.push((month.clone(), key));
         }
         next.chunks.sort();
-        if let Err(f) = self.backend.write(MANIFEST_KEY, &next.to_json()) {
+        if let Err(e) = self.backend.write(MANIFEST_KEY, &next.to_json()) {
             self.remove_all(&fresh);
-            return Err(f.into());
+            return Err(e);
         }
         self.remove_all(&superseded);
         self.manifest = next;
@@ -658,10 +582,75 @@ impl<B: Backend> Store<B> {
     }
 }
 
+/// Test support: storage in memory.
+#[cfg(test)]
+pub mod memory {
+    use super::{Backend, StoreError};
+    use std::collections::BTreeMap;
+
+    /// An in-memory backend with injectable faults and a quota, for the native tests.
+    #[derive(Clone, Debug, Default)]
+    pub struct Memory {
+        pub map: BTreeMap<String, String>,
+        /// Total characters of keys and values allowed, like the browser's quota.
+        pub quota: Option<usize>,
+        pub unavailable: bool,
+        /// Writes left before every write is refused (None: never).
+        pub writes_left: Option<usize>,
+    }
+
+    impl Memory {
+        pub fn used(&self) -> usize {
+            self.map
+                .iter()
+                .map(|(k, v)| k.chars().count() + v.chars().count())
+                .sum()
+        }
+    }
+
+    impl Backend for Memory {
+        fn read(&self, key: &str) -> Result<Option<String>, StoreError> {
+            if self.unavailable {
+                return Err(StoreError::Unavailable);
+            }
+            Ok(self.map.get(key).cloned())
+        }
+
+        fn write(&mut self, key: &str, value: &str) -> Result<(), StoreError> {
+            if self.unavailable {
+                return Err(StoreError::Refused);
+            }
+            if let Some(left) = self.writes_left.as_mut() {
+                if *left == 0 {
+                    return Err(StoreError::Refused);
+                }
+                *left -= 1;
+            }
+            if let Some(quota) = self.quota {
+                let old = self.map.get(key).map_or(0, |v| key.chars().count() + v.chars().count());
+                if self.used() - old + key.chars().count() + value.chars().count() > quota {
+                    return Err(StoreError::Full);
+                }
+            }
+            self.map.insert(key.to_string(), value.to_string());
+            Ok(())
+        }
+
+        fn remove(&mut self, key: &str) {
+            self.map.remove(key);
+        }
+
+        fn keys(&self) -> Vec<String> {
+            self.map.keys().cloned().collect()
+        }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::super::entry::EyeSummary;
     use super::super::error::Action;
+    use super::memory::Memory;
     use super::*;
     use crate::link::Destination;
     use lensplane_core::Eye;

@@ -25,7 +25,7 @@ pub struct EyeSummary {
 }
 
 /// One saved calculation. Build it with [`Entry::new`], which also indexes
-/// it for the filter.
+/// it for the filter (so a changed entry is built anew, not edited).
 #[derive(Clone, Debug, PartialEq)]
 pub struct Entry {
     /// Unique in the history.

@@ -57,7 +57,7 @@ pub struct History {
 
 impl History {
     /// Opens the history: reads only the manifest now, then the months in
-    /// slices of about [`SLICE_MS`] milliseconds, newest first, each in its
+    /// slices of about 12 ms (`SLICE_MS`), newest first, each in its
     /// own task after the first screen, so a large history never holds the
     /// page still. Views see each month as it completes.
     pub fn open() -> History {

@@ -126,7 +126,7 @@ test('delete with undo, and clear all only after a confirmation', async () => {
   await context.close();
 });
 
-test('filter by text (label, power) and by panel, kept in the link', async () => {
+test('filter by text (label, power) and by calculation, kept in the link', async () => {
   const { context, page } = await fresh();
   // 12 entries: panels cycle vertex, equivalent, near; labels "Room i%7" except every fourth.
   await seeded(page, storedLayout(makeEntries(12)));
@@ -138,7 +138,10 @@ test('filter by text (label, power) and by panel, kept in the link', async () =>
   await page.getByLabel('Filter').fill('-1.50 -1.50 x30');
   await count(page).getByText('1 of 12 entries match.').waitFor();
   await page.getByLabel('Filter').fill('');
-  await page.getByLabel('Panel').selectOption('near');
+  const options = await page.getByLabel('Calculation').locator('option').allTextContents();
+  assert.equal(options[0], 'All calculations');
+  for (const name of ['Vertex', 'Sph. equivalent', 'Near']) assert.ok(options.includes(name), name);
+  await page.getByLabel('Calculation').selectOption('near');
   await count(page).getByText('4 of 12 entries match.').waitFor();
   assert.equal(await entries(page).filter({ hasText: 'Near' }).count(), 4);
   await page.getByLabel('Filter').fill('room');
@@ -147,6 +150,7 @@ test('filter by text (label, power) and by panel, kept in the link', async () =>
   await openHistory(page, '?q=room%202&panel=near');
   await count(page).getByText('1 of 12 entries match.').waitFor();
   assert.equal(await page.getByLabel('Filter').inputValue(), 'room 2');
+  assert.equal(await page.getByLabel('Calculation').inputValue(), 'near');
   await context.close();
 });
 
@@ -218,6 +222,25 @@ test('storage full: a clear message, nothing stored is lost, the calculation sta
   await context.close();
 });
 
+test('storage full while deleting or clearing: the page says what did not happen, and nothing is lost', async () => {
+  const { context, page } = await fresh();
+  await seeded(page, storedLayout(makeEntries(2)));
+  await count(page).getByText('2 entries.').waitFor();
+  const before = await page.evaluate(() => ({ ...localStorage }));
+  await page.evaluate(() => {
+    Storage.prototype.setItem = function () { throw new DOMException('The quota has been exceeded.', 'QuotaExceededError'); };
+  });
+  await entries(page).first().getByRole('button', { name: 'Delete' }).click();
+  await page.getByRole('status').getByText("Not deleted: this device's storage is full. Nothing already saved was lost").waitFor();
+  await count(page).getByText('2 entries.').waitFor();
+  await page.getByRole('button', { name: 'Clear all…' }).click();
+  await page.getByRole('button', { name: 'Delete all entries' }).click();
+  await page.getByRole('status').getByText("Nothing was deleted: this device's storage is full.").waitFor();
+  await count(page).getByText('2 entries.').waitFor();
+  assert.deepEqual(await page.evaluate(() => ({ ...localStorage })), before);
+  await context.close();
+});
+
 test('a quota of nothing (as some private windows have): the first save is kept for the session, and the message says so', async () => {
   const { context, page } = await fresh();
   await context.addInitScript(() => {
@@ -286,8 +309,10 @@ test('export JSON and CSV as downloads; re-import skips duplicates; bad files ch
   const rows = csv.text.replace(/^\uFEFF/, '').trim().split('\r\n');
   // One row per eye: entries 0 and 2 have both eyes, entry 1 the right only.
   assert.equal(rows.length, 1 + 5);
-  assert.equal(rows[0], 'date,time,panel,label,eye,entered,result,orderable');
-  assert.match(rows[1], /^\d{4}-\d{2}-\d{2},\d{2}:\d{2},Near,Room 2,R,-0\.50 -0\.50 ×010,/);
+  assert.equal(rows[0], 'date,time,calculation,label,eye,entered,result,orderable');
+  // The calculation is its stable id, not its label.
+  assert.match(rows[1], /^\d{4}-\d{2}-\d{2},\d{2}:\d{2},near,Room 2,R,-0\.50 -0\.50 ×010,/);
+  assert.match(rows[3], /^\d{4}-\d{2}-\d{2},\d{2}:\d{2},equivalent,Room 1,R,/);
 
   await page.getByRole('button', { name: 'Clear all…' }).click();
   await page.getByRole('button', { name: 'Delete all entries' }).click();

@@ -51,6 +51,30 @@ impl Destination {
         }
     }
 
+    /// Its stable id: the path without the slash (`"vertex"`). Stored in the
+    /// history and written into its files, so it never changes.
+    ///
+    /// ```
+    /// use lensplane_web::link::Destination;
+    /// assert_eq!(Destination::Equivalent.id(), "equivalent");
+    /// assert_eq!(Destination::from_id("near"), Some(Destination::Near));
+    /// assert_eq!(Destination::from_id("/near"), None);
+    /// ```
+    pub fn id(self) -> &'static str {
+        &self.path()[1..]
+    }
+
+    /// The destination with this [`Destination::id`].
+    pub fn from_id(id: &str) -> Option<Destination> {
+        Destination::ALL.into_iter().find(|d| d.id() == id)
+    }
+
+    /// Whether it computes something that can be saved (every destination
+    /// but the history and the about page).
+    pub fn is_calculator(self) -> bool {
+        !matches!(self, Destination::History | Destination::About)
+    }
+
     /// The destination a route path (without the deploy base) names.
     pub fn from_path(path: &str) -> Option<Destination> {
         let trimmed = path.trim_end_matches('/');
@@ -80,16 +104,6 @@ impl Destination {
             Destination::History => "History",
             Destination::About => "About",
         }
-    }
-
-    /// Its stable id, as the history and its files store it ("vertex").
-    pub fn id(self) -> &'static str {
-        self.path().trim_start_matches('/')
-    }
-
-    /// The destination a stored id names.
-    pub fn from_id(id: &str) -> Option<Destination> {
-        Destination::ALL.into_iter().find(|d| d.id() == id)
     }
 
     /// The query keys this destination understands, in the order links write them.
@@ -231,6 +245,23 @@ mod tests {
         for d in Destination::ALL {
             assert_eq!(Destination::from_id(d.id()), Some(d));
         }
+    }
+
+    #[test]
+    fn ids_are_the_paths_without_the_slash_and_name_their_destination() {
+        for d in Destination::ALL {
+            assert_eq!(format!("/{}", d.id()), d.path());
+            assert_eq!(Destination::from_id(d.id()), Some(d));
+        }
+        // The ids the history has stored since its first version.
+        let stored: Vec<&str> = Destination::ALL
+            .into_iter()
+            .filter(|d| d.is_calculator())
+            .map(Destination::id)
+            .collect();
+        assert_eq!(stored[..3], ["vertex", "equivalent", "near"]);
+        assert_eq!(Destination::from_id(""), None);
+        assert_eq!(Destination::from_id("Vertex"), None);
     }
 
     #[test]

@@ -131,7 +131,8 @@ fn Destinations(base: String, carry: Carry) -> impl IntoView {
 pub fn App() -> impl IntoView {
     let base = deploy_base();
     provide_context(Base(base.clone()));
-    provide_context(History::new());
+    // Opened once, here: the manifest now, the months in slices after the first screen.
+    provide_context(History::open());
     provide_context(FieldsShown(Remembered::new("lensplane.fields")));
     let active = ActiveQuery(RwSignal::new(None));
     provide_context(active);

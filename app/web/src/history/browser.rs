@@ -1,12 +1,14 @@
-//! localStorage through gloo-storage, behind the store's [`Backend`] interface.
+//! localStorage behind the store's [`Backend`] interface, and the two other
+//! browser calls the history makes (persistence, downloads).
 //!
-//! gloo's typed `get`/`set` panic (`expect_throw`) when the browser throws on
-//! access, which is exactly the "storage unavailable" case the app must
-//! survive; so availability is probed first, and only then is gloo's handle
-//! used, with every call's exception caught.
+//! Plain `web_sys::Storage`, with every exception caught: a browser that
+//! blocks storage throws on `window.localStorage` itself and on any call,
+//! and the app must run on regardless (for this session only). gloo-storage's
+//! typed `get`/`set` panic there (`expect_throw`), and with its raw handle
+//! it adds nothing to these calls.
 
-use super::store::{Backend, Fault};
-use gloo_storage::Storage as _;
+use super::error::StoreError;
+use super::store::Backend;
 use wasm_bindgen::JsValue;
 
 pub struct Browser {
@@ -15,43 +17,38 @@ pub struct Browser {
 
 impl Browser {
     pub fn open() -> Browser {
-        // `window.localStorage` itself throws when storage is blocked.
-        let reachable = web_sys::window()
-            .and_then(|w| w.local_storage().ok().flatten())
-            .is_some();
         Browser {
-            storage: reachable.then(gloo_storage::LocalStorage::raw),
+            storage: web_sys::window().and_then(|w| w.local_storage().ok().flatten()),
         }
     }
 }
 
-fn fault(err: JsValue) -> Fault {
+/// A full quota, or anything else the browser refused.
+fn fault(err: JsValue) -> StoreError {
     let name = js_sys::Reflect::get(&err, &JsValue::from_str("name"))
         .ok()
         .and_then(|n| n.as_string())
         .unwrap_or_default();
     if name == "QuotaExceededError" || name == "NS_ERROR_DOM_QUOTA_REACHED" {
-        Fault::Quota
-    } else if name == "SecurityError" {
-        Fault::Unavailable
+        StoreError::Full
     } else {
-        Fault::Other(name)
+        StoreError::Refused
     }
 }
 
 impl Backend for Browser {
-    fn read(&self, key: &str) -> Result<Option<String>, Fault> {
+    fn read(&self, key: &str) -> Result<Option<String>, StoreError> {
         self.storage
             .as_ref()
-            .ok_or(Fault::Unavailable)?
+            .ok_or(StoreError::Unavailable)?
             .get_item(key)
             .map_err(fault)
     }
 
-    fn write(&mut self, key: &str, value: &str) -> Result<(), Fault> {
+    fn write(&mut self, key: &str, value: &str) -> Result<(), StoreError> {
         self.storage
             .as_ref()
-            .ok_or(Fault::Unavailable)?
+            .ok_or(StoreError::Refused)?
             .set_item(key, value)
             .map_err(fault)
     }

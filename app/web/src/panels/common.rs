@@ -150,7 +150,7 @@ impl<R: Send + Sync + 'static> Eyes<R> {
     /// What to save, or `None` when neither eye has a current result.
     pub fn save_request(
         &self,
-        panel: Destination,
+        destination: Destination,
         query: Query,
         label: String,
         summary: impl Fn(Eye, &R) -> EyeSummary,
@@ -164,7 +164,7 @@ impl<R: Send + Sync + 'static> Eyes<R> {
             })
             .collect();
         (!eyes.is_empty()).then(|| SaveRequest {
-            panel,
+            destination,
             query,
             label,
             eyes,
@@ -175,7 +175,7 @@ impl<R: Send + Sync + 'static> Eyes<R> {
 /// The summary line of one eye for the history.
 pub fn summary(eye: Eye, input: &Rx, result: String, order: Option<String>) -> EyeSummary {
     EyeSummary {
-        eye: eye_words(eye).1.into(),
+        eye,
         input: input.to_string(),
         result,
         order,

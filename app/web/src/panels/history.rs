@@ -8,14 +8,14 @@
 //! is written with plain DOM calls, all text as text nodes, never markup.
 //! One delegated click handler serves every Delete button.
 
-use crate::history::export::{
-    clock, day_words, entries_words, iso_date, local, to_csv, to_json, unreadable_json, TOO_LARGE,
-};
-use crate::history::schema::{panel_name, panel_of, panel_words, Entry};
-use crate::history::store::{Mode, IMPORT_MAX};
-use crate::history::{download, History};
+use crate::history::calendar::{clock, day_words, iso_date, local};
+use crate::history::entry::entries_words;
+use crate::history::files::{to_csv, to_json, unreadable_json, IMPORT_MAX};
+use crate::history::search::filter;
+use crate::history::{download, Action, Entry, History, StoreError};
 use crate::link::{href, Destination, Query};
 use crate::sync::{initial_query, use_link_sync, Base};
+use crate::widgets::eye_words;
 use chrono::{Local, NaiveDate};
 use leptos::prelude::*;
 use leptos_router::hooks::use_location;
@@ -25,7 +25,7 @@ use wasm_bindgen::JsCast;
 const PAGE: usize = 50;
 
 fn history() -> History {
-    use_context::<History>().unwrap_or_default()
+    expect_context::<History>()
 }
 
 fn base() -> String {
@@ -35,14 +35,17 @@ fn base() -> String {
 /// What the user should know about storage (faults, session-only mode, data kept aside).
 fn storage_notes(history: History) -> String {
     history.with(|s| {
-        let mut out = s.notices.clone();
-        if let Mode::SessionOnly(why) = &s.mode {
-            if !out.contains(why) {
-                out.push(why.clone());
-            }
-        }
-        out.join(" ")
+        s.notices()
+            .iter()
+            .map(ToString::to_string)
+            .collect::<Vec<_>>()
+            .join(" ")
     })
+}
+
+/// The calculation a stored or linked id names, if it is one.
+fn calculation(id: &str) -> Option<Destination> {
+    Destination::from_id(id).filter(|d| d.is_calculator())
 }
 
 /// Storage problems, shown on every other destination once the page is up.
@@ -50,16 +53,7 @@ fn storage_notes(history: History) -> String {
 pub fn HistoryBanner() -> impl IntoView {
     let history = history();
     let location = use_location();
-    // Opened after the first screen is drawn, so a large history never delays it.
-    let ready = RwSignal::new(false);
-    set_timeout(move || ready.set(true), std::time::Duration::ZERO);
-    let text = Memo::new(move |_| {
-        if ready.get() {
-            storage_notes(history)
-        } else {
-            String::new()
-        }
-    });
+    let text = Memo::new(move |_| storage_notes(history));
     let hidden = move || text.with(String::is_empty) || location.pathname.get().ends_with("/history");
     view! {
         <div class="storage-banner" role="status" hidden=hidden>
@@ -87,19 +81,19 @@ fn add(parent: &web_sys::Element, child: &web_sys::Element) {
 
 /// One saved calculation as a list item.
 fn entry_item(e: &Entry, base: &str) -> web_sys::Element {
-    let when = local(e.t, &Local);
+    let when = local(e.saved_at_ms, &Local);
     let li = el("li", "history-entry", "");
     let head = el("p", "history-head", "");
     let time = el("time", "", &clock(when));
     let _ = time.set_attribute("datetime", &iso_date(when));
     add(&head, &time);
-    add(&head, &el("span", "history-panel", panel_words(e.panel())));
-    add(&head, &el("span", "history-label", &e.l));
+    add(&head, &el("span", "history-calculation", e.destination.title()));
+    add(&head, &el("span", "history-label", &e.label));
     add(&li, &head);
     let eyes = el("ul", "history-eyes", "");
-    for y in &e.e {
+    for y in &e.eyes {
         let row = el("li", "", "");
-        add(&row, &el("b", "", &y.eye));
+        add(&row, &el("b", "", eye_words(y.eye).1));
         let _ = row.append_with_str_1(&format!(" {} → ", y.input));
         add(&row, &el("span", "rx", &y.result));
         if let Some(o) = &y.order {
@@ -110,7 +104,10 @@ fn entry_item(e: &Entry, base: &str) -> web_sys::Element {
     add(&li, &eyes);
     let actions = el("div", "actions", "");
     let open = el("a", "button", "Open");
-    let _ = open.set_attribute("href", &format!("{base}{}", href(e.panel(), &e.query())));
+    let _ = open.set_attribute(
+        "href",
+        &format!("{base}{}", href(e.destination, &Query::parse(&e.query))),
+    );
     add(&actions, &open);
     let delete = el("button", "button quiet", "Delete");
     let _ = delete.set_attribute("type", "button");
@@ -126,7 +123,7 @@ fn render_list(container: &web_sys::Element, entries: &[Entry], ids: &[usize], b
     let mut day: Option<(NaiveDate, web_sys::Element)> = None;
     for &i in ids {
         let e = &entries[i];
-        let date = local(e.t, &Local).date();
+        let date = local(e.saved_at_ms, &Local).date();
         if day.as_ref().is_none_or(|(d, _)| *d != date) {
             let prefix = match today.signed_duration_since(date).num_days() {
                 0 => "Today, ",
@@ -149,28 +146,27 @@ fn render_list(container: &web_sys::Element, entries: &[Entry], ids: &[usize], b
 #[component]
 pub fn HistoryPanel() -> impl IntoView {
     let history = history();
-    history.open();
     let base = base();
     let q = initial_query();
     let text = RwSignal::new(q.get("q").unwrap_or_default().to_string());
-    let panel = RwSignal::new(
-        q.get("panel")
-            .filter(|p| panel_of(p).is_some())
-            .unwrap_or_default()
-            .to_string(),
-    );
+    // The link keeps the calculation under `panel`, as links made before do.
+    let only = RwSignal::new(q.get("panel").and_then(calculation));
     let shown = RwSignal::new(PAGE);
     let status = RwSignal::new(String::new());
     let undo = RwSignal::new(None::<Entry>);
     let confirming = RwSignal::new(false);
     let exported_aside = RwSignal::new(false);
 
-    let current = Memo::new(move |_| Query::default().with("q", &text.get()).with("panel", &panel.get()));
+    let current = Memo::new(move |_| {
+        Query::default()
+            .with("q", &text.get())
+            .with("panel", only.get().map_or("", Destination::id))
+    });
     use_link_sync(Destination::History, current);
 
     let results = Memo::new(move |_| {
-        let p = panel.get();
-        text.with(|t| history.with(|s| s.filter(t, (!p.is_empty()).then_some(p.as_str()))))
+        let d = only.get();
+        text.with(|t| history.with(|s| filter(s.entries(), t, d)))
     });
     let total = Memo::new(move |_| history.with(|s| s.entries().len()));
 
@@ -208,7 +204,7 @@ pub fn HistoryPanel() -> impl IntoView {
                 undo.set(Some(entry));
                 status.set("Entry deleted.".into());
             }
-            Err(p) => status.set(p),
+            Err(e) => status.set(e.message(Action::Delete)),
         }
     };
     let undo_delete = move |_| {
@@ -216,7 +212,7 @@ pub fn HistoryPanel() -> impl IntoView {
             undo.set(None);
             status.set(match history.restore(entry) {
                 Ok(()) => "Entry restored.".into(),
-                Err(p) => p,
+                Err(e) => e.message(Action::Save),
             });
         }
     };
@@ -225,7 +221,7 @@ pub fn HistoryPanel() -> impl IntoView {
         undo.set(None);
         status.set(match history.clear() {
             Ok(n) => format!("Deleted all {}.", entries_words(n)),
-            Err(p) => p,
+            Err(e) => e.message(Action::Clear),
         });
     };
     let reading = Memo::new(move |_| history.is_reading());
@@ -255,7 +251,7 @@ pub fn HistoryPanel() -> impl IntoView {
         exported_aside.set(true);
     };
     let discard_aside = move |_| {
-        let _ = history.discard_aside();
+        history.discard_aside();
         status.set("The unreadable data was removed.".into());
     };
     let export = move |csv: bool| {
@@ -281,7 +277,7 @@ pub fn HistoryPanel() -> impl IntoView {
         };
         input.set_value("");
         if file.size() > IMPORT_MAX as f64 {
-            status.set(TOO_LARGE.into());
+            status.set(StoreError::TooLarge.message(Action::Import));
             return;
         }
         leptos::task::spawn_local(async move {
@@ -301,7 +297,7 @@ pub fn HistoryPanel() -> impl IntoView {
                     entries_words(r.added),
                     entries_words(r.duplicates)
                 ),
-                Some(Err(p)) => p,
+                Some(Err(e)) => e.message(Action::Import),
             });
         });
     };
@@ -324,12 +320,12 @@ pub fn HistoryPanel() -> impl IntoView {
                     on:input=move |ev| { text.set(event_target_value(&ev)); shown.set(PAGE); }/>
             </div>
             <div class="field">
-                <label for="history-panel">"Panel"</label>
-                <select id="history-panel" prop:value=move || panel.get()
-                    on:change=move |ev| { panel.set(event_target_value(&ev)); shown.set(PAGE); }>
-                    <option value="">"All panels"</option>
-                    {[Destination::Vertex, Destination::Equivalent, Destination::Near]
-                        .map(|d| view! { <option value=panel_name(d)>{panel_words(d)}</option> })}
+                <label for="history-calculation">"Calculation"</label>
+                <select id="history-calculation" prop:value=move || only.get().map_or("", Destination::id)
+                    on:change=move |ev| { only.set(calculation(&event_target_value(&ev))); shown.set(PAGE); }>
+                    <option value="">"All calculations"</option>
+                    {Destination::ALL.into_iter().filter(|d| d.is_calculator())
+                        .map(|d| view! { <option value=d.id()>{d.title()}</option> }).collect_view()}
                 </select>
             </div>
         </div>

@@ -1,7 +1,7 @@
 //! Copy the calculation as plain text or as its link, or save it (with an optional label)
 //! to the on-device history.
 
-use crate::history::{History, SaveRequest};
+use crate::history::{Action, History, SaveRequest};
 use leptos::prelude::*;
 
 /// Writes text to the clipboard; the future resolves with whether it worked.
@@ -19,16 +19,16 @@ pub fn SaveBar(
     /// What to save for a label, or `None` when there is nothing to save.
     request: Callback<String, Option<SaveRequest>>,
 ) -> impl IntoView {
-    let history = use_context::<History>().unwrap_or_default();
+    let history = expect_context::<History>();
     let label = RwSignal::new(String::new());
     let status = RwSignal::new(String::new());
     let save = move || match request.run(label.get_untracked()) {
         Some(req) => match history.save(req) {
             Ok(msg) => {
-                status.set(msg);
+                status.set(msg.into());
                 label.set(String::new());
             }
-            Err(msg) => status.set(msg),
+            Err(e) => status.set(e.message(Action::Save)),
         },
         None => status.set("Nothing to save yet: enter a prescription for at least one eye.".into()),
     };

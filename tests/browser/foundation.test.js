@@ -27,14 +27,17 @@ test('loads, routes and computes a sphere-only compensation through the core', a
   await waitForApp(page);
   await assert.doesNotReject(rightResult(page).getByText('-8.93').first().waitFor());
   // V5 [textbook]: +12.00 D at 12 mm → +14.0187 D; typed into the field this time.
+  // The separate fields are one tap away.
+  await page.getByRole('group', { name: 'Right eye (R)' }).getByText('Separate fields').click();
   const sphere = page.getByLabel('Right sphere', { exact: true });
   await sphere.fill('+12.00');
   await rightResult(page).getByText('+14.02').first().waitFor();
   assert.match(page.url(), /r=%2B12\.00|r=\+12\.00/);
-  // The four destinations are reachable from the navigation.
-  for (const [name, heading] of [['Sph. equivalent', /equivalent/i], ['Near', /near/i], ['History', /history/i], ['Vertex', /vertex/i]]) {
-    await page.getByRole('navigation', { name: 'Calculators' }).getByRole('link', { name }).click();
-    await page.getByRole('heading', { level: 1, name: heading }).waitFor();
+  // Every destination is one tap away in the navigation, under the name its page carries.
+  for (const name of ['Spherical equivalent', 'Near', 'History', 'About', 'Vertex']) {
+    await page.getByRole('navigation', { name: 'Calculators' }).getByRole('link', { name, exact: true }).click();
+    await page.getByRole('heading', { level: 1, name, exact: true }).waitFor();
+    assert.equal(await page.title(), `${name} · Lensplane`);
   }
   assert.deepEqual(errors, []);
   await page.close();
@@ -52,7 +55,7 @@ test('navigation: links switch destination in place, back and forward work, the 
   // A marker on the window survives only if the page is not reloaded.
   await page.evaluate(() => { globalThis.lensplaneStayed = true; });
   await nav.getByRole('link', { name: 'Near' }).click();
-  await page.getByRole('heading', { level: 1, name: 'Near add' }).waitFor();
+  await page.getByRole('heading', { level: 1, name: 'Near' }).waitFor();
   assert.match(page.url(), /\/near(\?|$)/);
   assert.equal(await nav.getByRole('link', { name: 'Near' }).getAttribute('aria-current'), 'page');
   assert.equal(await nav.getByRole('link', { name: 'Vertex' }).getAttribute('aria-current'), null);
@@ -60,14 +63,14 @@ test('navigation: links switch destination in place, back and forward work, the 
   await page.goBack();
   await page.getByRole('heading', { level: 1, name: 'Vertex' }).waitFor();
   await page.goForward();
-  await page.getByRole('heading', { level: 1, name: 'Near add' }).waitFor();
+  await page.getByRole('heading', { level: 1, name: 'Near' }).waitFor();
   assert.equal(await page.evaluate(() => globalThis.lensplaneStayed), true);
   // The skip link moves the focus to the main region and stays on the page.
   await page.getByRole('link', { name: 'Skip to the calculator' }).focus();
   await page.keyboard.press('Enter');
   await page.waitForFunction(() => document.activeElement && document.activeElement.id === 'main');
   assert.match(page.url(), /\/near(\?|$)/);
-  await page.getByRole('heading', { level: 1, name: 'Near add' }).waitFor();
+  await page.getByRole('heading', { level: 1, name: 'Near' }).waitFor();
   await page.goto(server.url('elsewhere'));
   await waitForApp(page);
   await page.getByRole('heading', { level: 1, name: 'Not found' }).waitFor();

@@ -27,7 +27,9 @@ const escape = (s) => s.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
 const exactly = (s) => new RegExp(`^\\s*${escape(s)}\\s*$`);
 
 const result = (page, eye) => page.getByRole('region', { name: `${eye} eye result` });
-const mainValue = (page, eye) => result(page, eye).locator('output.rx.big');
+// The card leads with the add in quarter steps; the exact equivalent add sits beside it.
+const mainValue = (page, eye) => result(page, eye).locator('.result-exact .rx');
+const orderValue = (page, eye) => result(page, eye).locator('output.rx.big');
 
 function row(page, eye, label) {
   const dt = page.locator('dt', { hasText: label instanceof RegExp ? label : exactly(label) });
@@ -89,6 +91,8 @@ async function expectFieldError(page, field, pattern) {
 
 async function open(route) {
   const page = await browser.newPage();
+  // The figures checked here sit behind each card's disclosure: remembered open, as a user would leave it.
+  await page.addInitScript(() => { try { localStorage.setItem('lensplane.details.near', 'open'); } catch { /* about:blank */ } });
   const errors = watchErrors(page);
   await page.goto(server.url(route));
   await waitForApp(page);
@@ -111,8 +115,8 @@ test('N1/N2 [textbook]: accommodation at 40 cm through −6.00 and +6.00 spectac
   // Notes §6.3 and §10 [textbook]: a myope needs more accommodation in contact lenses, a hyperope less.
   await result(page, 'Right').locator('.reason', { hasText: /myope needs more accommodation in contact lenses/ }).waitFor(WAIT);
   // No add entered: the card leads with the accommodation and shows no add rows.
-  await result(page, 'Right').locator('.reason', { hasText: /^-6\.00 DS with no add: / }).waitFor(WAIT);
-  assert.equal(await result(page, 'Right').getByText('Orderable add').count(), 0);
+  await orderValue(page, 'Right').filter({ hasText: exactly('2.43 D') }).waitFor(WAIT);
+  assert.equal(await result(page, 'Right').getByText('Equivalent add in quarter steps').count(), 0);
   await result(page, 'Left').locator('.reason', { hasText: /hyperope needs less accommodation in contact lenses/ }).waitFor(WAIT);
   assert.deepEqual(errors, []);
   await page.close();
@@ -133,17 +137,20 @@ test('N3/N4 [derived]: the equivalent contact-lens add follows the vergence chai
   assert.notEqual((await mainValue(page, 'Right').innerText()).trim(), '+2.24');
   assert.notEqual((await mainValue(page, 'Left').innerText()).trim(), '+3.00');
   assert.doesNotMatch(await result(page, 'Right').innerText(), /2\.24/);
-  // Orderable add: 2.4272 on quarter steps is +2.50 (notes §5, ties toward plus) [common practice].
-  await expectRow(page, 'Right', 'Orderable add', '+2.50');
-  await expectRow(page, 'Left', 'Orderable add', '+2.50');
+  // The equivalent add in quarter steps: 2.4272 → +2.50 (notes §5, ties toward plus) [common practice];
+  // at the cornea it is an equivalent add, not an orderable multifocal label.
+  await expectRow(page, 'Right', 'Equivalent add in quarter steps', '+2.50');
+  await expectRow(page, 'Left', 'Equivalent add in quarter steps', '+2.50');
+  await orderValue(page, 'Right').filter({ hasText: exactly('+2.50') }).waitFor(WAIT);
+  assert.equal(await result(page, 'Right').getByText(/orderable add/i).count(), 0);
   // [derived] Near prescription at the cornea, exact: distance power there (notes §2: −6/(1 + 0.012·6) = −5.5970;
   // +6/(1 − 0.012·6) = +6.4655) plus the 2.4272 add: −3.1698 and +8.8927.
   await expectRow(page, 'Right', 'Near prescription at the cornea (contact lens), exact', '-3.17 DS');
   await expectRow(page, 'Left', 'Near prescription at the cornea (contact lens), exact', '+8.89 DS');
   // Orderable [common practice, notes §5 contact-lens ladder]: −5.5970 → −5.50 and +6.4655 → +6.50 (0.50 steps beyond 6),
   // each plus the orderable add +2.50.
-  await expectRow(page, 'Right', 'Near prescription, orderable', '-3.00 DS');
-  await expectRow(page, 'Left', 'Near prescription, orderable', '+9.00 DS');
+  await expectRow(page, 'Right', 'Near prescription in steps', '-3.00 DS');
+  await expectRow(page, 'Left', 'Near prescription in steps', '+9.00 DS');
   assert.deepEqual(errors, []);
   await page.close();
 });
@@ -181,14 +188,14 @@ test('H1 [published] and A1 [textbook]: Hofstetter amplitudes at 40 and 50, tent
 test('inches: 16 in is 40.64 cm, and switching the unit re-reads the same text', async () => {
   const { page, errors } = await open('near?r=-6.00&add=2.50&reading=16&unit=in');
   assert.equal(await readingField(page).inputValue(), '16');
-  assert.equal(await page.getByRole('radio', { name: 'Inches' }).isChecked(), true);
+  assert.equal(await page.getByRole('radio', { name: 'in', exact: true }).isChecked(), true);
   // [definition] 16 in = 40.64 cm; demand 100 / 40.64 = 2.4606 D.
   await expectRow(page, 'Right', 'Demand at 16 in (40.64 cm)', '2.46 D');
   // Back to centimetres: a bare 16 could be either, so the field asks (notes §9).
-  await page.getByRole('radio', { name: 'Centimetres' }).check();
+  await page.getByRole('radio', { name: 'cm', exact: true }).check();
   await expectFieldError(page, readingField(page), /needs a unit/);
   await expectUrl(page, /^\/near\?(?!.*unit=)/);
-  await page.getByRole('radio', { name: 'Inches' }).check();
+  await page.getByRole('radio', { name: 'in', exact: true }).check();
   await expectUrl(page, /reading=16&unit=in/);
   await expectRow(page, 'Right', 'Demand at 16 in (40.64 cm)', '2.46 D');
   assert.deepEqual(errors, []);
@@ -199,7 +206,7 @@ test('measured from the eye changes the figures (notes §6.3)', async () => {
   const { page } = await open('near?r=-6.00&reading=40&measured=lens');
   // N1 [textbook]: from the lens, contact lens 1/(0.40 + 0.012) = 2.4272.
   await expectRow(page, 'Right', 'Accommodation in contact lenses, no add', '2.43 D');
-  await page.getByRole('radio', { name: 'The eye (cornea)' }).check();
+  await page.getByRole('radio', { name: 'Eye', exact: true }).check();
   await expectUrl(page, /measured=eye/);
   // [textbook, notes §6.3] a contact lens wearer accommodates 1 / distance from the eye: 1/0.40 = 2.50.
   await expectRow(page, 'Right', 'Accommodation in contact lenses, no add', '2.50 D');
@@ -215,8 +222,8 @@ test('per meridian: the −6.00 meridian of −6.00 −2.00 ×180 has N1\'s figu
   await expectRow(page, 'Right', 'Meridian 180°', '-6.00');
   await expectDetail(page, 'Right', 'Meridian 180°', /spectacles 2\.12 D without the add, 0\.00 D with it; in contact lenses 2\.43 D; relief at the eye 2\.12 D/);
   // Meridian 90 is −8.00 [derived, notes §6.1]: K = −8/1.096 = −7.2993; L_e = −10.5/1.126 = −9.3250; 2.0258.
-  await expectRow(page, 'Right', 'Meridian 90°', '-8.00');
-  await expectDetail(page, 'Right', 'Meridian 90°', /spectacles 2\.03 D without the add/);
+  await expectRow(page, 'Right', 'Meridian 090°', '-8.00');
+  await expectDetail(page, 'Right', 'Meridian 090°', /spectacles 2\.03 D without the add/);
   // The summary figures are for the spherical equivalent S + C/2 = −7.00 [definition, notes §4]:
   // [derived] K = −7/1.084 = −6.4576; L_e = −9.5/1.114 = −8.5278; 2.0703.
   await expectRow(page, 'Right', 'Spherical equivalent', '-7.00');
@@ -238,12 +245,12 @@ test('every input round-trips through the link, both ways', async () => {
   assert.equal(await page.getByLabel('Right prescription', { exact: true }).inputValue(), '-8.00 -2.00 x180');
   assert.equal(await page.getByLabel('Left prescription', { exact: true }).inputValue(), '+1.50');
   assert.equal(await addField(page).inputValue(), '2.25');
-  assert.equal(await page.getByLabel('Vertex distance measured at', { exact: true }).inputValue(), '13');
-  assert.equal(await page.getByRole('radio', { name: 'Spectacles at another distance' }).isChecked(), true);
-  assert.equal(await page.getByLabel('Target vertex distance', { exact: true }).inputValue(), '14');
+  assert.equal(await page.getByLabel('Vertex distance of the spectacles worn', { exact: true }).inputValue(), '13');
+  assert.equal(await page.getByRole('radio', { name: 'Spectacles', exact: true }).first().isChecked(), true);
+  assert.equal(await page.getByLabel('Spectacle vertex distance', { exact: true }).inputValue(), '14');
   assert.equal(await readingField(page).inputValue(), '16');
-  assert.equal(await page.getByRole('radio', { name: 'Inches' }).isChecked(), true);
-  assert.equal(await page.getByRole('radio', { name: 'The eye (cornea)' }).isChecked(), true);
+  assert.equal(await page.getByRole('radio', { name: 'in', exact: true }).isChecked(), true);
+  assert.equal(await page.getByRole('radio', { name: 'Eye', exact: true }).isChecked(), true);
   assert.equal(await ageField(page).inputValue(), '52');
   await mainValue(page, 'Right').waitFor(WAIT);
   await mainValue(page, 'Left').waitFor(WAIT);
@@ -256,15 +263,15 @@ test('every input round-trips through the link, both ways', async () => {
   await page.getByRole('button', { name: 'Spectacle add: 0.25 D more plus' }).click();
   assert.equal(await addField(page).inputValue(), '+3.00');
   await expectUrl(page, /add=%2B3\.00/);
-  await page.getByLabel('Vertex distance measured at', { exact: true }).fill('11');
+  await page.getByLabel('Vertex distance of the spectacles worn', { exact: true }).fill('11');
   await expectUrl(page, /from=11/);
-  await page.getByLabel('Target vertex distance', { exact: true }).fill('15');
+  await page.getByLabel('Spectacle vertex distance', { exact: true }).fill('15');
   await expectUrl(page, /to=15/);
-  await page.getByRole('radio', { name: 'Contact lens (cornea, 0 mm)' }).check();
+  await page.getByRole('radio', { name: 'Contact lens', exact: true }).check();
   await expectUrl(page, /to=0/);
   await readingField(page).fill('14');
   await expectUrl(page, /reading=14&unit=in/);
-  await page.getByRole('radio', { name: 'The spectacle plane' }).check();
+  await page.getByRole('radio', { name: 'Spectacles', exact: true }).nth(1).check();
   await expectUrl(page, /measured=lens/);
   await ageField(page).fill('61');
   await expectUrl(page, /age=61/);
@@ -280,8 +287,8 @@ test('every input round-trips through the link, both ways', async () => {
   await waitForApp(page);
   assert.equal(await addField(page).inputValue(), '1.75');
   assert.equal(await readingField(page).inputValue(), '33');
-  assert.equal(await page.getByRole('radio', { name: 'Centimetres' }).isChecked(), true);
-  assert.equal(await page.getByRole('radio', { name: 'The eye (cornea)' }).isChecked(), true);
+  assert.equal(await page.getByRole('radio', { name: 'cm', exact: true }).isChecked(), true);
+  assert.equal(await page.getByRole('radio', { name: 'Eye', exact: true }).isChecked(), true);
   assert.equal(await ageField(page).inputValue(), '');
   assert.deepEqual(errors, []);
   await page.close();
@@ -338,9 +345,10 @@ test('copy as text and save to history', async () => {
   await page.getByRole('button', { name: 'Copy as text' }).click();
   await page.getByRole('status').filter({ hasText: 'Copied as text.' }).waitFor(WAIT);
   const copied = await page.evaluate(() => navigator.clipboard.readText());
-  // N3/N4 [derived] in the copied text, per eye.
-  assert.match(copied, /^R {2}Equivalent add at the cornea \(contact lens\): \+2\.43$/m);
-  assert.match(copied, /^L {2}Equivalent add at the cornea \(contact lens\): \+2\.43$/m);
+  // N3/N4 [derived] in the copied text: one order line per eye (the equivalent add in quarter steps), then the exact adds.
+  assert.match(copied, /^R add \+2\.50 \(contact lens, from -6\.00 DS with add \+2\.50 at 12 mm, reading at 40 cm\)$/m);
+  assert.match(copied, /^L add \+2\.50 \(contact lens, from \+6\.00 DS with add \+2\.50 at 12 mm, reading at 40 cm\)$/m);
+  assert.match(copied, /^R exact \+2\.43; L exact \+2\.43$/m);
   assert.match(copied, /not a prescription/);
   await page.getByLabel('Label (optional)').fill('room 2');
   await page.getByRole('button', { name: 'Save to history' }).click();

@@ -23,6 +23,12 @@ async function open(path) {
   return { page, errors };
 }
 
+/** Opens an eye's separate sphere, cylinder and axis fields (one tap away). */
+async function openFields(page, eye) {
+  const toggle = page.getByRole('group', { name: `${eye} eye (${eye[0]})` }).locator('details.rx-fields-toggle');
+  if (!(await toggle.evaluate((d) => d.open))) await toggle.locator('summary').click();
+}
+
 /** Waits until the region's text contains every string. */
 async function expectText(locator, ...texts) {
   for (const t of texts) await locator.getByText(t, { exact: false }).first().waitFor({ timeout: 10000 });
@@ -54,14 +60,15 @@ test('C2 [textbook]: +6.00 −2.00 ×90 at 12 mm → +6.47 −2.26 ×90; left ey
 test('V6 [textbook]: −10.00 moved from a 10 mm to a 14 mm frame → −10.42, orderable −10.50 on spectacle steps', async () => {
   const { page } = await open('vertex?r=-10.00&from=10&to=14');
   const r = region(page, 'Right');
-  await expectText(r, '-10.42 DS', '-10.50 DS', 'spectacle quarter steps', 'moving a correction away from the eye needs less plus');
-  assert.equal(await page.getByLabel('Target vertex distance').inputValue(), '14');
-  assert.equal(await page.getByRole('radio', { name: /Spectacles at another distance/ }).isChecked(), true);
+  await expectText(r, '-10.42 DS', '-10.50 DS', 'Spectacle lens in quarter steps', 'moving a correction away from the eye needs less plus');
+  assert.equal(await page.getByLabel('Spectacle vertex distance').inputValue(), '14');
+  assert.equal(await page.getByRole('radio', { name: 'Spectacles' }).isChecked(), true);
   await page.close();
 });
 
 test('R1 [derived]: three fields, rounded per meridian −5.25 −1.75 (not −5.25 −2.00 from rounding sphere and cylinder apart)', async () => {
   const { page } = await open('vertex');
+  await openFields(page, 'Right');
   await page.getByLabel('Right sphere', { exact: true }).fill('-5.50');
   await page.getByLabel('Right cylinder', { exact: true }).fill('-2.25');
   await page.getByLabel('Right axis', { exact: true }).fill('180');
@@ -89,6 +96,7 @@ test('a pasted line fills the fields; unicode minus and comma decimals are read 
 
 test('the ± control and the quarter-dioptre steppers edit the typed text', async () => {
   const { page } = await open('vertex');
+  await openFields(page, 'Right');
   const sphere = page.getByLabel('Right sphere', { exact: true });
   await sphere.fill('2.00');
   await expectText(page.locator('#vertex-right-sphere-msg'), 'sphere needs a sign');
@@ -134,7 +142,7 @@ test('vertex "1.2" asks for 12 mm; the last good result stays visible, marked st
   const { page } = await open('vertex?r=-10.00');
   const r = region(page, 'Right');
   await expectText(r, '-8.93 DS');
-  await page.getByLabel('Vertex distance measured at').fill('1.2');
+  await page.getByLabel('Vertex distance of the refraction').fill('1.2');
   await expectText(page.locator('#vertex-from-msg'), 'did you mean 12 mm?');
   await expectText(r, 'Not updated', '-8.93 DS');
   assert.match(await r.getAttribute('class'), /stale/);
@@ -151,7 +159,8 @@ test('warnings sit with the result: high power asks to measure the vertex distan
 test('toric contact-lens choice for a cylinder that warrants it, with the residual it leaves', async () => {
   const { page } = await open(`vertex?r=${enc('-8.00 -2.00 x180')}`);
   const r = region(page, 'Right');
-  await expectText(r, 'Toric contact lens', 'left uncorrected');
+  // Stock torics (common practice, no source): the nearest of −0.75/−1.25/−1.75/−2.25 and a 10° axis step.
+  await expectText(r, '-7.00 -1.75 ×180', 'Soft toric from the usual range', 'leaves 1.63 D of cylinder uncorrected');
   await page.close();
 });
 
@@ -164,7 +173,9 @@ test('copy as text puts trade notation on the clipboard; save reports success; c
   await page.getByRole('button', { name: 'Copy as text' }).click();
   await expectText(page.getByRole('status').filter({ hasText: 'Copied' }), 'Copied');
   const text = await page.evaluate(() => navigator.clipboard.readText());
-  assert.match(text, /R .*-7\.30 -1\.63 ×180/);
+  // One compact order line per eye, then the exact values.
+  assert.match(text, /^R -7\.00 -1\.75 ×180 \(contact lens, from -8\.00 -2\.00 ×180 at 12 mm\)$/m);
+  assert.match(text, /R exact -7\.30 -1\.63 ×180/);
   // V1 [textbook]: −4.00 → −3.8168 → −3.82.
   assert.match(text, /L .*-3\.82 DS/);
   assert.match(text, /not a prescription/);

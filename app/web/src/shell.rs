@@ -111,17 +111,13 @@ fn Destinations(base: String, carry: Carry) -> impl IntoView {
             // Plain links: the router follows them in place; the base is ours to add.
             let b = base.clone();
             let href = move || format!("{b}{}", carry.0.with(|c| carried_href(d, c)));
-            let is_current = move || {
-                current
-                    .get()
-                    .is_some_and(|c| c.unwrap_or(Destination::Vertex) == d)
-                    .then_some("page")
-            };
+            // The root shows the vertex panel.
+            let is_current = move || (current.get().unwrap_or(Some(Destination::Vertex)) == Some(d)).then_some("page");
             view! { <li><a href=href aria-current=is_current>{d.title()}</a></li> }
         })
         .collect_view();
     view! {
-        <nav class="destinations" aria-label="Destinations">
+        <nav class="destinations" aria-label="Calculators">
             <ul>{links}</ul>
         </nav>
     }

@@ -7,7 +7,7 @@ use leptos::prelude::*;
 #[component]
 pub fn AboutPanel() -> impl IntoView {
     view! {
-        <h1>"About and cautions"</h1>
+        <h1>{crate::link::Destination::About.title()}</h1>
         <section class="prose" aria-labelledby="about-what">
             <h2 id="about-what">"What Lensplane computes"</h2>
             <ul>

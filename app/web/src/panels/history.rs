@@ -303,7 +303,7 @@ pub fn HistoryPanel() -> impl IntoView {
     };
 
     view! {
-        <h1>"History"</h1>
+        <h1>{Destination::History.title()}</h1>
         <p class="lede">"Calculations saved on this device. Nothing leaves it unless you export a file."</p>
         <div class="storage-banner" role="alert" hidden=move || notes.with(String::is_empty)>
             <p>{notes}</p>

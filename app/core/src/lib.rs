@@ -46,6 +46,7 @@
 //! | prescription, transposition | [`Rx`] | `rx.rs` |
 //! | principal meridians | [`PowerCross`], [`Meridian`] | `meridians.rs` |
 //! | power vectors | [`PowerVector`] | `vectors.rs` |
+//! | dioptric power matrices | [`PowerMatrix`], [`PrincipalPowers`] | `power_matrix.rs` |
 //! | decimal numbers in text (no std float parser: size) | [`read_decimal`] | `decimal.rs` |
 //! | parsing typed text | [`parse_rx`], [`Rx::from_fields`], [`parse_sphere_field`], [`parse_cylinder_field`], [`parse_axis_field`], [`parse_vertex_mm`], [`parse_reading_distance`], [`parse_reading_inches`], [`parse_add`], [`parse_age`] | `parse.rs`, `lex.rs` |
 //! | trade notation out | `Display for Rx`, [`fmt_axis`], [`fmt_power`], [`fmt_sphere`], [`fmt_number`], [`fmt_dioptres`], [`fmt_length`] | `format.rs` |
@@ -151,6 +152,7 @@ pub mod limits;
 mod meridians;
 mod near;
 mod parse;
+mod power_matrix;
 mod recommend;
 mod report_equivalent;
 mod report_near;
@@ -179,6 +181,7 @@ pub use parse::{
     parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance, parse_reading_inches,
     parse_rx, parse_sphere_field, parse_vertex_mm, Notice, NoticeKind, Parsed,
 };
+pub use power_matrix::{PowerMatrix, PrincipalPowers};
 pub use recommend::{recommend, Candidate, Leftover, LensKind, Recommendation};
 pub use report_equivalent::{equivalent_report, EquivalentInput, EquivalentReport};
 pub use report_near::{near_report, AmplitudeReport, NearInput, NearReport};

@@ -78,12 +78,21 @@ pub enum CautionKind {
     TrialAtDistance,
     /// Near figures are referred to the corneal vertex.
     NearReference,
+    /// The over-refraction model: thin lenses, rotation only as entered.
+    OverRefractionModel,
+    /// Confirm the new lens by over-refraction and acuity once it settles.
+    ConfirmSettled,
+    /// Rotation compensation assumes a lens that settles the same way.
+    StableRotation,
 }
 
 impl CautionKind {
     /// Every kind, in the order a page lists them.
-    pub const ALL: [CautionKind; 11] = [
+    pub const ALL: [CautionKind; 14] = [
         CautionKind::StartingPoint,
+        CautionKind::ConfirmSettled,
+        CautionKind::StableRotation,
+        CautionKind::OverRefractionModel,
         CautionKind::SphericalLeavesAstigmatism,
         CautionKind::MultifocalLabels,
         CautionKind::PopulationEstimate,
@@ -101,7 +110,8 @@ impl CautionKind {
         use Calculation::*;
         match self {
             CautionKind::StartingPoint | CautionKind::ScreeningRefer | CautionKind::LocalRules => Scope::Everywhere,
-            CautionKind::ThinLens => Scope::Only(&[Vertex, Equivalent, Near, OverRefraction, ImageSize, Chart]),
+            // The over-refraction page has its own model caution: it handles toric rotation as entered.
+            CautionKind::ThinLens => Scope::Only(&[Vertex, Equivalent, Near, ImageSize, Chart]),
             CautionKind::MeasureVertex => Scope::Only(&[Vertex, Equivalent, Near, OverRefraction, Chart]),
             CautionKind::PresbyopeAccommodation => Scope::Only(&[Vertex, Near]),
             CautionKind::SphericalLeavesAstigmatism => Scope::Only(&[Equivalent]),
@@ -109,6 +119,9 @@ impl CautionKind {
             | CautionKind::PopulationEstimate
             | CautionKind::TrialAtDistance
             | CautionKind::NearReference => Scope::Only(&[Near]),
+            CautionKind::OverRefractionModel | CautionKind::ConfirmSettled | CautionKind::StableRotation => {
+                Scope::Only(&[OverRefraction])
+            }
         }
     }
 }
@@ -145,6 +158,15 @@ impl fmt::Display for CautionKind {
             }
             CautionKind::NearReference => f.write_str(
                 "Accommodation is referred to the corneal vertex; the reading distance is taken from the plane chosen above.",
+            ),
+            CautionKind::OverRefractionModel => f.write_str(
+                "Thin lenses referred to the corneal vertex: no tear lens, rigid-lens astigmatism or flexure; toric rotation only as observed and entered.",
+            ),
+            CautionKind::ConfirmSettled => f.write_str(
+                "Confirm the new lens by over-refraction and acuity with it in place; a contact lens once it has settled.",
+            ),
+            CautionKind::StableRotation => f.write_str(
+                "Compensating a toric lens's rotation assumes it settles the same way each time: check the marks again on the new lens.",
             ),
         }
     }

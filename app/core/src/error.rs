@@ -46,6 +46,14 @@ pub enum Field {
     Near,
     /// The amplitude-by-age figures.
     Amplitude,
+    /// The over-refraction found over the worn lens.
+    OverRefraction,
+    /// Where the over-refraction was found (trial frame or refractor).
+    OverRefractionVertex,
+    /// The observed rotation of a toric contact lens.
+    Rotation,
+    /// The kind of lens (soft or rigid).
+    LensType,
 }
 
 impl Field {
@@ -65,6 +73,10 @@ impl Field {
             Field::Substitute => "spherical substitute",
             Field::Near => "near result",
             Field::Amplitude => "amplitude",
+            Field::OverRefraction => "over-refraction",
+            Field::OverRefractionVertex => "vertex distance",
+            Field::Rotation => "rotation",
+            Field::LensType => "lens type",
         }
     }
 }
@@ -125,6 +137,14 @@ pub(crate) enum ErrorKind {
     Singular { power: f64 },
     /// A setting that cannot work.
     BadSetting { what: &'static str },
+    /// Degrees with a decimal point where whole degrees are needed.
+    NotWholeDegrees { typed: String },
+    /// A sign typed in the rotation amount (the direction is chosen apart).
+    RotationSigned,
+    /// The over-refraction placed behind the worn spectacle lens (mm).
+    BehindWornLens { at: String, worn: String },
+    /// A rigid contact lens: the tear lens is not modelled.
+    RigidLens,
 }
 
 impl Error {
@@ -225,6 +245,17 @@ impl fmt::Display for Error {
                 fmt_power(*power)
             ),
             ErrorKind::BadSetting { what } => write!(f, "setting: {what}"),
+            ErrorKind::NotWholeDegrees { typed } => write!(f, "{noun} {typed} must be a whole number of degrees"),
+            ErrorKind::RotationSigned => {
+                f.write_str("rotation takes no sign: give the amount and choose left or right")
+            }
+            ErrorKind::BehindWornLens { at, worn } => write!(
+                f,
+                "vertex distance {at} mm puts the over-refraction behind the worn lens at {worn} mm"
+            ),
+            ErrorKind::RigidLens => {
+                f.write_str("rigid lens: this thin-lens model leaves out the tear lens, so it computes no order")
+            }
         }
     }
 }

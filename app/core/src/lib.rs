@@ -57,6 +57,8 @@
 //! | spherical equivalent, substitutes | [`spherical_equivalent_at`], [`assess_substitute`] | `equivalent.rs` |
 //! | typed substitute limits | [`parse_cylinder_limit`], [`parse_ratio_limit`], [`SubstituteSettings::from_texts`] | `settings_text.rs` |
 //! | near | [`near_figures`], [`NearGeometry`] | `near.rs` |
+//! | over-refraction chain, "left add, right subtract" | [`combine_over_refraction`], [`worn_on_eye`], [`lars_order`] | `overrefraction.rs` |
+//! | toric rotation, its parsing and words | [`Rotation`], [`RotationDirection`], [`parse_rotation`], [`parse_rotation_amount`] | `rotation.rs` |
 //! | amplitude by age | [`hofstetter`], [`tentative_add`] | `amplitude.rs` |
 //! | warnings beside a result | [`Warning`], [`rx_warnings`], [`vertex_warnings`] | `warnings.rs` |
 //! | standing cautions of a page | [`cautions_for`], [`Caution`], [`Calculation`] | `cautions.rs` |
@@ -64,7 +66,7 @@
 //! | ± control and steppers of the entry form | [`toggle_sign`], [`step_text`] | `editing.rs` |
 //! | checked quantities | [`VertexDistance`], [`ReadingDistance`], [`Age`], [`Add`], [`EyePair`] | `units.rs` |
 //! | the one error type | [`Error`], [`Field`] | `error.rs` |
-//! | panel reports | [`vertex_report`], [`equivalent_report`], [`near_report`] | `report_*.rs` |
+//! | panel reports | [`vertex_report`], [`equivalent_report`], [`near_report`], [`over_refraction_report`] | `report_*.rs` |
 //!
 //! The UI calls one report function per eye and panel and displays what it
 //! returns; it does no arithmetic, not even rounding for display (use the
@@ -151,12 +153,15 @@ mod lex;
 pub mod limits;
 mod meridians;
 mod near;
+mod overrefraction;
 mod parse;
 mod power_matrix;
 mod recommend;
 mod report_equivalent;
 mod report_near;
+mod report_overrefraction;
 mod report_vertex;
+mod rotation;
 mod rounding;
 mod rx;
 mod settings_text;
@@ -177,6 +182,7 @@ pub use error::{Error, Field};
 pub use format::{fmt_axis, fmt_dioptres, fmt_length, fmt_number, fmt_power, fmt_sphere};
 pub use meridians::{Meridian, PowerCross};
 pub use near::{near_figures, NearFigures, NearGeometry};
+pub use overrefraction::{combine_over_refraction, lars_order, worn_on_eye, OverRefractionChain, OverRefractionPlanes};
 pub use parse::{
     parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance, parse_reading_inches,
     parse_rx, parse_sphere_field, parse_vertex_mm, Notice, NoticeKind, Parsed,
@@ -185,7 +191,11 @@ pub use power_matrix::{PowerMatrix, PrincipalPowers};
 pub use recommend::{recommend, Candidate, Leftover, LensKind, Recommendation};
 pub use report_equivalent::{equivalent_report, EquivalentInput, EquivalentReport};
 pub use report_near::{near_report, AmplitudeReport, NearInput, NearReport};
+pub use report_overrefraction::{
+    over_refraction_report, LensChange, OverRefractionInput, OverRefractionReport, RotationHandling,
+};
 pub use report_vertex::{vertex_report, LadderKind, VertexInput, VertexReport};
+pub use rotation::{parse_rotation, parse_rotation_amount, Rotation, RotationDirection};
 pub use rounding::{
     is_on_step, order_lens, round_meridians, round_separately, round_to_step, Ladder, OrderSettings, OrderedLens,
     StockRange, TieRule,

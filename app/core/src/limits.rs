@@ -154,6 +154,23 @@ pub const VERTEX_USUAL: Limit = Limit::span(8.0, 20.0, Unit::Millimetres);
 /// Any meridian beyond this: measure the vertex distance.
 pub const MEASURE_VERTEX: Limit = Limit::symmetric(4.0, Unit::Dioptres);
 
+/// Observed rotation of a toric contact lens, whole degrees either way (the
+/// amount; the direction is given apart). Beyond 90° a cylinder turned one
+/// way is the same as turned less the other way, so larger amounts are
+/// typing errors.
+pub const ROTATION: Limit = Limit::span(0.0, 90.0, Unit::Degrees);
+/// A rotation above this: a refit is usually better than compensating
+/// (common practice, no source).
+pub const ROTATION_WARN: Limit = Limit {
+    min: 0.0,
+    max: 30.0,
+    unit: Unit::Degrees,
+    form: Form::Above,
+};
+/// An over-refraction meridian beyond this: check the fit and the
+/// refraction (a residual this large is unusual over a fitted lens).
+pub const OVER_REFRACTION_WARN: Limit = Limit::symmetric(4.0, Unit::Dioptres);
+
 /// Typed vertex distances under this (but not 0) are questioned, mm.
 pub const VERTEX_SHORT_MM: f64 = 3.0;
 /// A computed meridian beyond this means the far point sits (practically)

@@ -84,15 +84,21 @@ pub enum CautionKind {
     ConfirmSettled,
     /// Rotation compensation assumes a lens that settles the same way.
     StableRotation,
+    /// Image sizes are thin-lens estimates, not a measurement.
+    ImageSizeEstimate,
+    /// Refer when symptoms suggest aniseikonia.
+    AniseikoniaSymptoms,
 }
 
 impl CautionKind {
     /// Every kind, in the order a page lists them.
-    pub const ALL: [CautionKind; 14] = [
+    pub const ALL: [CautionKind; 16] = [
         CautionKind::StartingPoint,
         CautionKind::ConfirmSettled,
         CautionKind::StableRotation,
         CautionKind::OverRefractionModel,
+        CautionKind::ImageSizeEstimate,
+        CautionKind::AniseikoniaSymptoms,
         CautionKind::SphericalLeavesAstigmatism,
         CautionKind::MultifocalLabels,
         CautionKind::PopulationEstimate,
@@ -122,6 +128,7 @@ impl CautionKind {
             CautionKind::OverRefractionModel | CautionKind::ConfirmSettled | CautionKind::StableRotation => {
                 Scope::Only(&[OverRefraction])
             }
+            CautionKind::ImageSizeEstimate | CautionKind::AniseikoniaSymptoms => Scope::Only(&[ImageSize]),
         }
     }
 }
@@ -167,6 +174,12 @@ impl fmt::Display for CautionKind {
             ),
             CautionKind::StableRotation => f.write_str(
                 "Compensating a toric lens's rotation assumes it settles the same way each time: check the marks again on the new lens.",
+            ),
+            CautionKind::ImageSizeEstimate => f.write_str(
+                "Image sizes are thin-lens estimates of spectacle magnification, not a measurement of aniseikonia.",
+            ),
+            CautionKind::AniseikoniaSymptoms => f.write_str(
+                "Where symptoms (eyestrain, headache, unequal or double images) suggest aniseikonia, measure or refer.",
             ),
         }
     }

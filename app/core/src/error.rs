@@ -54,6 +54,12 @@ pub enum Field {
     Rotation,
     /// The kind of lens (soft or rigid).
     LensType,
+    /// The front surface power (base curve) of a spectacle lens.
+    FrontSurface,
+    /// The centre thickness of a spectacle lens.
+    Thickness,
+    /// The refractive index of a spectacle lens.
+    Index,
 }
 
 impl Field {
@@ -77,6 +83,9 @@ impl Field {
             Field::OverRefractionVertex => "vertex distance",
             Field::Rotation => "rotation",
             Field::LensType => "lens type",
+            Field::FrontSurface => "front surface",
+            Field::Thickness => "centre thickness",
+            Field::Index => "refractive index",
         }
     }
 }
@@ -145,6 +154,8 @@ pub(crate) enum ErrorKind {
     BehindWornLens { at: String, worn: String },
     /// A rigid contact lens: the tear lens is not modelled.
     RigidLens,
+    /// A spectacle vertex distance of 0 mm where spectacles are needed.
+    SpectacleVertexNeeded,
 }
 
 impl Error {
@@ -255,6 +266,9 @@ impl fmt::Display for Error {
             ),
             ErrorKind::RigidLens => {
                 f.write_str("rigid lens: this thin-lens model leaves out the tear lens, so it computes no order")
+            }
+            ErrorKind::SpectacleVertexNeeded => {
+                f.write_str("vertex distance 0 mm is a contact lens: give the spectacle vertex distance")
             }
         }
     }

@@ -59,6 +59,9 @@
 //! | near | [`near_figures`], [`NearGeometry`] | `near.rs` |
 //! | over-refraction chain, "left add, right subtract" | [`combine_over_refraction`], [`worn_on_eye`], [`lars_order`] | `overrefraction.rs` |
 //! | toric rotation, its parsing and words | [`Rotation`], [`RotationDirection`], [`parse_rotation`], [`parse_rotation_amount`] | `rotation.rs` |
+//! | spectacle magnification | [`meridian_size`], [`power_factor`], [`shape_factor`], [`ENTRANCE_PUPIL_MM`] | `magnification.rs` |
+//! | spectacle lens form | [`LensForm`], [`parse_front_surface`], [`parse_thickness_mm`], [`parse_index`] | `lens_form.rs` |
+//! | percentages out | [`fmt_percent`], [`fmt_percent_size`] | `percent.rs` |
 //! | amplitude by age | [`hofstetter`], [`tentative_add`] | `amplitude.rs` |
 //! | warnings beside a result | [`Warning`], [`rx_warnings`], [`vertex_warnings`] | `warnings.rs` |
 //! | standing cautions of a page | [`cautions_for`], [`Caution`], [`Calculation`] | `cautions.rs` |
@@ -66,7 +69,7 @@
 //! | ± control and steppers of the entry form | [`toggle_sign`], [`step_text`] | `editing.rs` |
 //! | checked quantities | [`VertexDistance`], [`ReadingDistance`], [`Age`], [`Add`], [`EyePair`] | `units.rs` |
 //! | the one error type | [`Error`], [`Field`] | `error.rs` |
-//! | panel reports | [`vertex_report`], [`equivalent_report`], [`near_report`], [`over_refraction_report`] | `report_*.rs` |
+//! | panel reports | [`vertex_report`], [`equivalent_report`], [`near_report`], [`over_refraction_report`], [`image_size_report`], [`compare_image_sizes`] | `report_*.rs` |
 //!
 //! The UI calls one report function per eye and panel and displays what it
 //! returns; it does no arithmetic, not even rounding for display (use the
@@ -149,15 +152,19 @@ mod editing;
 mod equivalent;
 mod error;
 mod format;
+mod lens_form;
 mod lex;
 pub mod limits;
+mod magnification;
 mod meridians;
 mod near;
 mod overrefraction;
 mod parse;
+mod percent;
 mod power_matrix;
 mod recommend;
 mod report_equivalent;
+mod report_image_size;
 mod report_near;
 mod report_overrefraction;
 mod report_vertex;
@@ -180,6 +187,10 @@ pub use equivalent::{
 };
 pub use error::{Error, Field};
 pub use format::{fmt_axis, fmt_dioptres, fmt_length, fmt_number, fmt_power, fmt_sphere};
+pub use lens_form::{parse_front_surface, parse_index, parse_thickness_mm, LensForm};
+pub use magnification::{
+    meridian_size, power_factor, shape_factor, MeridianSize, ANTERIOR_FOCAL_POINT_MM, ENTRANCE_PUPIL_MM,
+};
 pub use meridians::{Meridian, PowerCross};
 pub use near::{near_figures, NearFigures, NearGeometry};
 pub use overrefraction::{combine_over_refraction, lars_order, worn_on_eye, OverRefractionChain, OverRefractionPlanes};
@@ -187,9 +198,14 @@ pub use parse::{
     parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance, parse_reading_inches,
     parse_rx, parse_sphere_field, parse_vertex_mm, Notice, NoticeKind, Parsed,
 };
+pub use percent::{fmt_percent, fmt_percent_size};
 pub use power_matrix::{PowerMatrix, PrincipalPowers};
 pub use recommend::{recommend, Candidate, Leftover, LensKind, Recommendation};
 pub use report_equivalent::{equivalent_report, EquivalentInput, EquivalentReport};
+pub use report_image_size::{
+    compare_image_sizes, image_size_report, ImageSizeComparison, ImageSizeInput, ImageSizeReport, MeridianDifference,
+    Outline, OutlinePair, Tolerance, CONTACT_LENS_SHARE, SHAPE_FACTOR_LEFT_OUT, SPECTACLE_PERCENT_PER_DIOPTRE,
+};
 pub use report_near::{near_report, AmplitudeReport, NearInput, NearReport};
 pub use report_overrefraction::{
     over_refraction_report, LensChange, OverRefractionInput, OverRefractionReport, RotationHandling,

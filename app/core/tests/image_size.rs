@@ -202,6 +202,21 @@ fn the_shape_factor() {
 }
 
 #[test]
+fn d20_the_change_includes_the_spectacle_shape_factor() {
+    // Decision 20: +8.00 at 12 mm with a +6.00 / 2 mm / 1.5 form [derived]:
+    // (1 − 0.096) / 1.008065 − 1 = -0.10323, no longer −d·F = -0.096.
+    let r = image_size_report(&ImageSizeInput {
+        rx: Rx::sphere_only(8.0).unwrap(),
+        vertex: VertexDistance::SPECTACLES,
+        form: Some(LensForm::new(6.0, 2.0, 1.5).unwrap()),
+    })
+    .unwrap();
+    close(r.meridians[0].change, -0.10323, "change with the shape factor");
+    // The entrance pupil depth [from memory] and the anterior focal point [textbook].
+    assert_eq!((ENTRANCE_PUPIL_MM, ANTERIOR_FOCAL_POINT_MM), (3.0, 15.7));
+}
+
+#[test]
 fn lens_form_errors_at_their_fields() {
     for (f, t, n, message, field) in [
         (

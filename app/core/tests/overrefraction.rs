@@ -445,6 +445,47 @@ fn standing_cautions_of_the_page() {
     assert!(!cautions_for(Calculation::Vertex).any(|c| c.kind == CautionKind::StableRotation));
 }
 
+#[test]
+fn d14_the_chain_passes_the_cornea_even_when_the_target_is_the_worn_plane() {
+    // Decision 14: +30.00 +10.00 ×180 worn at 20 mm has a +40.00 meridian whose ocular
+    // refraction, 40 / (1 − 0.8) = 200 D, is beyond ±100 D [derived]: an error, not a number.
+    let e = over_refraction_report(&input(
+        rx(30.0, 10.0, 180),
+        20.0,
+        Rx::sphere_only(0.0).unwrap(),
+        20.0,
+        20.0,
+    ))
+    .unwrap_err();
+    assert_eq!(
+        e.to_string(),
+        "no finite lens: the far point of +40.00 lies at the new lens plane"
+    );
+    assert_eq!(e.field(), Field::Result);
+}
+
+#[test]
+fn d18_back_from_a_matrix() {
+    // Decision 18: half degrees round up, 0 is 180, a cylinder under 1e-9 D is none.
+    let p = |axis| PrincipalPowers {
+        most_plus: -1.0,
+        most_minus: -2.0,
+        axis,
+    };
+    assert_eq!(
+        (
+            p(172.5).whole_axis(),
+            p(172.4).whole_axis(),
+            p(0.49).whole_axis(),
+            p(180.0).whole_axis()
+        ),
+        (173, 172, 180, 180)
+    );
+    let tiny = PowerMatrix::new(-2.0, 1e-10, -2.0).unwrap().to_rx();
+    assert_eq!((tiny.cylinder(), tiny.axis()), (0.0, 180));
+    assert_eq!(tiny.to_string(), "-2.00 DS");
+}
+
 // ---------------------------------------------------------------- properties
 
 fn sphere() -> impl Strategy<Value = f64> {

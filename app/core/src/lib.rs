@@ -182,7 +182,8 @@
 //!     compares magnitudes, so over a spherical lens any cylinder counts;
 //!     "beyond ±4 D" looks at the over-refraction's meridians as typed.
 //! 18. **Back from a matrix.** Closed-form eigen-decomposition; the exact
-//!     axis lies in (0, 180] and is reported beside the prescription; the
+//!     axis lies in (0, 180] (within 1e-9° of 0 it is 180) and is reported
+//!     beside the prescription; the
 //!     whole-degree axis rounds half up, 0 → 180; a cylinder under 1e-9 D is
 //!     none (axis 180).
 //! 19. **What changed** is new lens − worn lens, both at the target plane and

@@ -268,7 +268,8 @@ impl PowerMatrix {
             };
         }
         let mut axis = v.j45.atan2(v.j0).to_degrees() / 2.0;
-        if axis <= 0.0 {
+        // (0, 180]; an axis a rounding error above 0 is 180 as well.
+        if axis <= 1e-9 {
             axis += 180.0;
         }
         PrincipalPowers {

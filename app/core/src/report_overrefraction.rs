@@ -141,7 +141,8 @@ pub struct OverRefractionReport {
     pub reason: String,
     /// What changed from the worn lens.
     pub change: LensChange,
-    /// Warnings, each tied to a field.
+    /// Warnings, each tied to a field. The vertex checks leave out "below a
+    /// quarter step": what changed is in `change`.
     pub warnings: Vec<Warning>,
 }
 
@@ -204,7 +205,7 @@ fn reason(input: &OverRefractionInput, handled: RotationHandling) -> String {
             r.amount()
         )),
         RotationHandling::PlacedOnly => s.push_str(&format!(
-            "; the worn lens was taken as it sits ({}), and a spectacle lens does not turn",
+            "; the worn lens was taken as it sits, turned {}, and a spectacle lens does not turn",
             r.words()
         )),
         RotationHandling::NotGiven | RotationHandling::Ignored => {}
@@ -392,11 +393,13 @@ pub fn over_refraction_report(input: &OverRefractionInput) -> Result<OverRefract
             ),
         ));
     }
-    warnings.extend(vertex_warnings(
-        &chain.combined_at_worn.to_rx(),
-        input.worn_at,
-        input.target,
-    ));
+    // The vertex checks of the move from the worn lens to the new one; "below a
+    // quarter step" is left out: what changed is reported on its own.
+    warnings.extend(
+        vertex_warnings(&chain.combined_at_worn.to_rx(), input.worn_at, input.target)
+            .into_iter()
+            .filter(|w| w.kind != WarningKind::BelowQuarterStep),
+    );
     if input.target.is_cornea() {
         if let Some(stock) = input.settings.stock {
             let lens = recommendation.order.lens.meridians();

@@ -183,9 +183,8 @@
 //!     "beyond ±4 D" looks at the over-refraction's meridians as typed.
 //! 18. **Back from a matrix.** Closed-form eigen-decomposition; the exact
 //!     axis lies in (0, 180] (within 1e-9° of 0 it is 180) and is reported
-//!     beside the prescription; the
-//!     whole-degree axis rounds half up, 0 → 180; a cylinder under 1e-9 D is
-//!     none (axis 180).
+//!     beside the prescription; the whole-degree axis rounds half up,
+//!     0 → 180; a cylinder under 1e-9 D is none (axis 180).
 //! 19. **What changed** is new lens − worn lens, both at the target plane and
 //!     in the frame of the order (as labelled when the rotation is
 //!     compensated, as on the eye otherwise), along the new lens's principal

@@ -75,12 +75,27 @@ pub enum CautionKind {
     PopulationEstimate,
     /// Trial the add at the real reading distance.
     TrialAtDistance,
+    /// The over-refraction model: thin lenses, rotation only as entered.
+    OverRefractionModel,
+    /// Confirm the new lens by over-refraction and acuity once it settles.
+    ConfirmSettled,
+    /// Rotation compensation assumes a lens that settles the same way.
+    StableRotation,
+    /// Image sizes are thin-lens estimates, not a measurement.
+    ImageSizeEstimate,
+    /// Refer when symptoms suggest aniseikonia.
+    AniseikoniaSymptoms,
 }
 
 impl CautionKind {
     /// Every kind, in the order a page lists them.
-    pub const ALL: [CautionKind; 9] = [
+    pub const ALL: [CautionKind; 14] = [
         CautionKind::StartingPoint,
+        CautionKind::ConfirmSettled,
+        CautionKind::StableRotation,
+        CautionKind::OverRefractionModel,
+        CautionKind::ImageSizeEstimate,
+        CautionKind::AniseikoniaSymptoms,
         CautionKind::SphericalLeavesAstigmatism,
         CautionKind::MultifocalLabels,
         CautionKind::PopulationEstimate,
@@ -96,13 +111,18 @@ impl CautionKind {
         use Calculation::*;
         match self {
             CautionKind::StartingPoint | CautionKind::ScreeningRefer => Scope::Everywhere,
-            CautionKind::ThinLens => Scope::Only(&[Vertex, Equivalent, Near, OverRefraction, ImageSize, Chart]),
+            // The over-refraction page has its own model caution: it handles toric rotation as entered.
+            CautionKind::ThinLens => Scope::Only(&[Vertex, Equivalent, Near, ImageSize, Chart]),
             CautionKind::MeasureVertex => Scope::Only(&[Vertex, Equivalent, OverRefraction, Chart]),
             CautionKind::PresbyopeAccommodation => Scope::Only(&[Vertex, Near]),
             CautionKind::SphericalLeavesAstigmatism => Scope::Only(&[Equivalent]),
             CautionKind::MultifocalLabels | CautionKind::PopulationEstimate | CautionKind::TrialAtDistance => {
                 Scope::Only(&[Near])
             }
+            CautionKind::OverRefractionModel | CautionKind::ConfirmSettled | CautionKind::StableRotation => {
+                Scope::Only(&[OverRefraction])
+            }
+            CautionKind::ImageSizeEstimate | CautionKind::AniseikoniaSymptoms => Scope::Only(&[ImageSize]),
         }
     }
 }
@@ -136,6 +156,21 @@ impl fmt::Display for CautionKind {
             CautionKind::TrialAtDistance => {
                 f.write_str("Trial the add at the patient's real reading distance before ordering.")
             }
+            CautionKind::OverRefractionModel => f.write_str(
+                "Thin lenses referred to the corneal vertex: no tear lens, rigid-lens astigmatism or flexure; toric rotation only as observed and entered.",
+            ),
+            CautionKind::ConfirmSettled => f.write_str(
+                "Confirm the new lens by over-refraction and acuity with it in place; a contact lens once it has settled.",
+            ),
+            CautionKind::StableRotation => f.write_str(
+                "Compensating a toric lens's rotation assumes it settles the same way each time: check the marks again on the new lens.",
+            ),
+            CautionKind::ImageSizeEstimate => f.write_str(
+                "Image sizes are thin-lens estimates of spectacle magnification, not a measurement of aniseikonia.",
+            ),
+            CautionKind::AniseikoniaSymptoms => f.write_str(
+                "Where symptoms (eyestrain, headache, unequal or double images) suggest aniseikonia, measure or refer.",
+            ),
         }
     }
 }

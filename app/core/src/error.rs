@@ -46,6 +46,20 @@ pub enum Field {
     Near,
     /// The amplitude-by-age figures.
     Amplitude,
+    /// The over-refraction found over the worn lens.
+    OverRefraction,
+    /// Where the over-refraction was found (trial frame or refractor).
+    OverRefractionVertex,
+    /// The observed rotation of a toric contact lens.
+    Rotation,
+    /// The kind of lens (soft or rigid).
+    LensType,
+    /// The front surface power (base curve) of a spectacle lens.
+    FrontSurface,
+    /// The centre thickness of a spectacle lens.
+    Thickness,
+    /// The refractive index of a spectacle lens.
+    Index,
 }
 
 impl Field {
@@ -65,6 +79,13 @@ impl Field {
             Field::Substitute => "spherical substitute",
             Field::Near => "near result",
             Field::Amplitude => "amplitude",
+            Field::OverRefraction => "over-refraction",
+            Field::OverRefractionVertex => "vertex distance",
+            Field::Rotation => "rotation",
+            Field::LensType => "lens type",
+            Field::FrontSurface => "front surface",
+            Field::Thickness => "centre thickness",
+            Field::Index => "refractive index",
         }
     }
 }
@@ -125,6 +146,16 @@ pub(crate) enum ErrorKind {
     Singular { power: f64 },
     /// A setting that cannot work.
     BadSetting { what: &'static str },
+    /// Degrees with a decimal point where whole degrees are needed.
+    NotWholeDegrees { typed: String },
+    /// A sign typed in the rotation amount (the direction is chosen apart).
+    RotationSigned,
+    /// The over-refraction placed behind the worn spectacle lens (mm).
+    BehindWornLens { at: String, worn: String },
+    /// A rigid contact lens: the tear lens is not modelled.
+    RigidLens,
+    /// A spectacle vertex distance of 0 mm where spectacles are needed.
+    SpectacleVertexNeeded,
 }
 
 impl Error {
@@ -225,6 +256,20 @@ impl fmt::Display for Error {
                 fmt_power(*power)
             ),
             ErrorKind::BadSetting { what } => write!(f, "setting: {what}"),
+            ErrorKind::NotWholeDegrees { typed } => write!(f, "{noun} {typed} must be a whole number of degrees"),
+            ErrorKind::RotationSigned => {
+                f.write_str("rotation takes no sign: give the amount and choose left or right")
+            }
+            ErrorKind::BehindWornLens { at, worn } => write!(
+                f,
+                "vertex distance {at} mm puts the over-refraction behind the worn lens at {worn} mm"
+            ),
+            ErrorKind::RigidLens => {
+                f.write_str("rigid lens: this thin-lens model leaves out the tear lens, so it computes no order")
+            }
+            ErrorKind::SpectacleVertexNeeded => {
+                f.write_str("vertex distance 0 mm is a contact lens: give the spectacle vertex distance")
+            }
         }
     }
 }

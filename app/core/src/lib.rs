@@ -3,7 +3,9 @@
 //! The computation core of Lensplane: moving spectacle and contact-lens
 //! prescriptions between optical planes (vertex compensation), spherical
 //! equivalents and spherical substitutes, rounding to orderable powers, toric
-//! contact-lens mapping, and near (add) effectivity. Pure functions, no I/O,
+//! contact-lens mapping, near (add) effectivity, over-refraction (a worn lens
+//! combined with what is found over it) and image size (spectacle against
+//! contact-lens magnification). Pure functions, no I/O,
 //! no web dependencies, no `unsafe`.
 //!
 //! **Results are starting points, never a prescription**: confirm by
@@ -13,7 +15,8 @@
 //! ## The model
 //!
 //! * **Thin lenses in air.** Every lens is a thin lens at one plane; no tear
-//!   lens, rigid-lens astigmatism, flexure or toric rotation.
+//!   lens, rigid-lens astigmatism or flexure; toric rotation only as observed
+//!   and entered on the over-refraction page.
 //! * **The eye's reference plane is the corneal vertex.** "At the eye" means
 //!   at the cornea, where a contact lens sits ([`VertexDistance::CORNEA`],
 //!   0 mm). The eye's principal point lies ~1.35 mm further in; using it
@@ -30,6 +33,12 @@
 //!   per meridian, never the V(F + A) − V(F) shortcut.
 //! * **Astigmatic residuals** are power-vector differences (Thibos, Wheeler
 //!   & Horner 1997), which handles obliquely crossed cylinders.
+//! * **Lenses at one plane add as dioptric power matrices** (Harris;
+//!   Keating), never sphere to sphere and cylinder to cylinder; a matrix
+//!   travels toward the eye as L·(I − dL)⁻¹ ([`PowerMatrix::moved`]).
+//! * **Spectacle magnification** is the thin-lens power factor
+//!   1 / (1 − hF), h = vertex distance + [`ENTRANCE_PUPIL_MM`], times the
+//!   shape factor when the lens form is known (Bennett & Rabbetts).
 //!
 //! ## Units at the edges
 //!
@@ -46,6 +55,7 @@
 //! | prescription, transposition | [`Rx`] | `rx.rs` |
 //! | principal meridians | [`PowerCross`], [`Meridian`] | `meridians.rs` |
 //! | power vectors | [`PowerVector`] | `vectors.rs` |
+//! | dioptric power matrices | [`PowerMatrix`], [`PrincipalPowers`] | `power_matrix.rs` |
 //! | decimal numbers in text (no std float parser: size) | [`read_decimal`] | `decimal.rs` |
 //! | parsing typed text (a token cursor: `eat`, `peek`, `expect_end`) | [`parse_rx`], [`Rx::from_fields`], [`parse_sphere_field`], [`parse_cylinder_field`], [`parse_axis_field`], [`parse_vertex_mm`], [`parse_reading_distance`], [`parse_reading_inches`], [`parse_add`], [`parse_age`] | `parse.rs`, `lex.rs`, `cursor.rs` |
 //! | trade notation out | `Display for Rx`, [`fmt_axis`], [`fmt_power`], [`fmt_sphere`], [`fmt_number`], [`fmt_dioptres`], [`fmt_length`] | `format.rs` |
@@ -56,6 +66,11 @@
 //! | spherical equivalent, substitutes | [`spherical_equivalent_at`], [`assess_substitute`] | `equivalent.rs` |
 //! | typed substitute limits | [`parse_cylinder_limit`], [`parse_ratio_limit`], [`SubstituteSettings::from_texts`] | `settings_text.rs` |
 //! | near | [`near_figures`], [`NearGeometry`] | `near.rs` |
+//! | over-refraction chain, "left add, right subtract" | [`combine_over_refraction`], [`worn_on_eye`], [`lars_order`] | `overrefraction.rs` |
+//! | toric rotation, its parsing and words | [`Rotation`], [`RotationDirection`], [`parse_rotation`], [`parse_rotation_amount`] | `rotation.rs` |
+//! | spectacle magnification | [`meridian_size`], [`power_factor`], [`shape_factor`], [`ENTRANCE_PUPIL_MM`] | `magnification.rs` |
+//! | spectacle lens form | [`LensForm`], [`parse_front_surface`], [`parse_thickness_mm`], [`parse_index`] | `lens_form.rs` |
+//! | percentages out | [`fmt_percent`], [`fmt_percent_size`] | `percent.rs` |
 //! | amplitude by age | [`hofstetter`], [`tentative_add`] | `amplitude.rs` |
 //! | warnings beside a result | [`Warning`], [`rx_warnings`], [`vertex_warnings`] | `warnings.rs` |
 //! | standing cautions of a page | [`cautions_for`], [`Caution`], [`Calculation`] | `cautions.rs` |
@@ -63,7 +78,7 @@
 //! | ± control and steppers of the entry form | [`toggle_sign`], [`step_text`] | `editing.rs` |
 //! | checked quantities | [`VertexDistance`], [`ReadingDistance`], [`Age`], [`Add`], [`EyePair`] | `units.rs` |
 //! | the one error type | [`Error`], [`Field`] | `error.rs` |
-//! | panel reports | [`vertex_report`], [`equivalent_report`], [`near_report`] | `report_*.rs` |
+//! | panel reports | [`vertex_report`], [`equivalent_report`], [`near_report`], [`over_refraction_report`], [`image_size_report`], [`compare_image_sizes`] | `report_*.rs` |
 //!
 //! The UI calls one report function per eye and panel and displays what it
 //! returns; it does no arithmetic, not even rounding for display (use the
@@ -72,17 +87,25 @@
 //! ## Limits
 //!
 //! Hard limits (errors): sphere ±30 D, cylinder up to 10 D, axis 1–180,
-//! vertex 0–30 mm, reading distance 10–100 cm, age 1–110, add 0 to +4.00.
+//! vertex 0–30 mm, reading distance 10–100 cm, age 1–110, add 0 to +4.00,
+//! toric rotation 0–90° either way, the over-refraction at or in front of the
+//! worn lens, and a spectacle lens form of front surface 0.00 to +25.00,
+//! centre thickness 0.5–20 mm, index 1.40–2.00.
 //! Warnings: a meridian beyond ±20 D, cylinder above 6 D, a spectacle vertex
 //! outside 8–20 mm, any meridian beyond ±4 D (measure the vertex distance),
 //! a change below a quarter step, off-step input, contact-lens powers outside
-//! the stock range. Within the hard limits no function returns NaN or
+//! the stock range, a rotation above 30° or an unstable lens (a refit is
+//! usually better), an over-refraction with more cylinder than the worn lens
+//! or a meridian beyond ±4 D (check the fit and the refraction). Image-size
+//! differences between the eyes are read against about 3–5 % (common
+//! practice). Within the hard limits no function returns NaN or
 //! infinity: where the far point lies at (or practically at) the new lens
 //! plane the result is an [`Error`].
 //!
 //! ## Decisions where the notes were silent
 //!
-//! Each is tested in `tests/decisions.rs`.
+//! Each is tested in `tests/decisions.rs`; 14–19 in `tests/overrefraction.rs`
+//! and 20–24 in `tests/image_size.rs`.
 //!
 //! 1. **Singular moves.** A compensated meridian beyond ±100 D is reported as
 //!    an error ("no finite lens…"), as is 1 − δF = 0 exactly. Within the
@@ -136,6 +159,57 @@
 //!     (+20.00 at 20 mm is +33.33 at the cornea; −25.00 −8.00 is −33.00
 //!     +8.00 in plus-cylinder form): they print, but are not accepted back as
 //!     input.
+//! 14. **Over-refraction planes.** The over-refraction is found at or in
+//!     front of the worn lens (`at` ≥ `worn`), else an error. The chain
+//!     always passes the cornea (the ocular refraction is reported), so where
+//!     that exceeds ±100 D the report is an error even when the target is the
+//!     worn lens's own plane (only with meridians far beyond ±20 D).
+//! 15. **Toric rotation.** Signed whole degrees, positive clockwise as the
+//!     examiner sees it (to the examiner's left); 0–90 either way (beyond 90°
+//!     a cylinder turned one way is one turned less the other way), a warning
+//!     above 30°. It is used only for a contact lens at the cornea with a
+//!     cylinder; for spectacles or a spherical lens it is ignored with a
+//!     warning (as an axis is for a zero cylinder, decision 9). The order is
+//!     compensated (left add, right subtract) only when a contact lens is
+//!     ordered; for spectacles the worn lens is taken as it sits. The
+//!     compensated exact power is what [`recommend`] receives, so the toric
+//!     axis step applies to the axis as labelled; what a lens leaves
+//!     uncorrected is the same on the eye. "Unstable" warns whenever the worn
+//!     lens is a contact lens, rotation or not.
+//! 16. **Rigid lenses are refused**, not approximated: an error at
+//!     [`Field::LensType`] and no figures, since the model has no tear lens.
+//! 17. **Over-refraction warnings.** "More cylinder than the worn lens"
+//!     compares magnitudes, so over a spherical lens any cylinder counts;
+//!     "beyond ±4 D" looks at the over-refraction's meridians as typed.
+//! 18. **Back from a matrix.** Closed-form eigen-decomposition; the exact
+//!     axis lies in (0, 180] (within 1e-9° of 0 it is 180) and is reported
+//!     beside the prescription; the whole-degree axis rounds half up,
+//!     0 → 180; a cylinder under 1e-9 D is none (axis 180).
+//! 19. **What changed** is new lens − worn lens, both at the target plane and
+//!     in the frame of the order (as labelled when the rotation is
+//!     compensated, as on the eye otherwise), along the new lens's principal
+//!     meridians and as a power vector; + means more plus.
+//! 20. **Image size per eye.** The 3 mm entrance pupil depth is a named
+//!     constant ([`ENTRANCE_PUPIL_MM`], from memory). A contact lens has no
+//!     shape factor. The change to contact lenses includes the spectacle
+//!     shape factor when the lens form is given (so it equals −d·F only
+//!     without one). The spectacle vertex distance must be above 0.
+//! 21. **Between the eyes** the difference is the ratio of the two
+//!     magnifications − 1, larger over smaller, with which eye is larger:
+//!     this is how the notes' 5.9 % for R −1.00 / L −5.00 arises (subtracting
+//!     the percentages gives 5.5 %). The eyes are compared in the 180 and 090
+//!     meridians, an oblique cylinder by its power in that meridian,
+//!     S + C·sin²(θ − α). The tolerance reading uses the figure as shown (one
+//!     decimal): under 3.0 % usual, 3.0–5.0 % may not be tolerated, above
+//!     5.0 % often not.
+//! 22. **Percentages** print with one decimal, a space before `%` (as `D`),
+//!     half away from zero: a change with its sign (`+13.6 %`, `-9.6 %`,
+//!     `0.0 %`), a difference between the eyes without (`5.9 %`).
+//! 23. **Lens form** (front surface 0.00 to +25.00, centre thickness
+//!     0.5–20 mm, index 1.40–2.00) is all three fields or none; an index that
+//!     lost its decimal point (`16`) is refused with the reading it may mean.
+//! 24. **Cautions.** The over-refraction page has its own model caution
+//!     instead of the general thin-lens one, which says "no toric rotation".
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
 
@@ -147,15 +221,23 @@ mod editing;
 mod equivalent;
 mod error;
 mod format;
+mod lens_form;
 mod lex;
 pub mod limits;
+mod magnification;
 mod meridians;
 mod near;
+mod overrefraction;
 mod parse;
+mod percent;
+mod power_matrix;
 mod recommend;
 mod report_equivalent;
+mod report_image_size;
 mod report_near;
+mod report_overrefraction;
 mod report_vertex;
+mod rotation;
 mod rounding;
 mod rx;
 mod settings_text;
@@ -174,16 +256,31 @@ pub use equivalent::{
 };
 pub use error::{Error, Field};
 pub use format::{fmt_axis, fmt_dioptres, fmt_length, fmt_number, fmt_power, fmt_sphere};
+pub use lens_form::{parse_front_surface, parse_index, parse_thickness_mm, LensForm};
+pub use magnification::{
+    meridian_size, power_factor, shape_factor, MeridianSize, ANTERIOR_FOCAL_POINT_MM, ENTRANCE_PUPIL_MM,
+};
 pub use meridians::{Meridian, PowerCross};
 pub use near::{near_figures, NearFigures, NearGeometry};
+pub use overrefraction::{combine_over_refraction, lars_order, worn_on_eye, OverRefractionChain, OverRefractionPlanes};
 pub use parse::{
     parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance, parse_reading_inches,
     parse_rx, parse_sphere_field, parse_vertex_mm, Notice, NoticeKind, Parsed,
 };
+pub use percent::{fmt_percent, fmt_percent_size};
+pub use power_matrix::{PowerMatrix, PrincipalPowers};
 pub use recommend::{recommend, Candidate, Leftover, LensKind, Recommendation};
 pub use report_equivalent::{equivalent_report, EquivalentInput, EquivalentReport};
+pub use report_image_size::{
+    compare_image_sizes, image_size_report, ImageSizeComparison, ImageSizeInput, ImageSizeReport, MeridianDifference,
+    Outline, OutlinePair, Tolerance, CONTACT_LENS_SHARE, SHAPE_FACTOR_LEFT_OUT, SPECTACLE_PERCENT_PER_DIOPTRE,
+};
 pub use report_near::{near_report, AmplitudeReport, NearInput, NearReport};
+pub use report_overrefraction::{
+    over_refraction_report, LensChange, OverRefractionInput, OverRefractionReport, RotationHandling,
+};
 pub use report_vertex::{vertex_report, LadderKind, VertexInput, VertexReport};
+pub use rotation::{parse_rotation, parse_rotation_amount, Rotation, RotationDirection};
 pub use rounding::{
     is_on_step, order_lens, round_meridians, round_separately, round_to_step, Ladder, OrderSettings, OrderedLens,
     StockRange, TieRule,

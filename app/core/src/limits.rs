@@ -5,7 +5,7 @@
 
 use core::fmt;
 
-use crate::format::{fmt_length, fmt_power};
+use crate::format::{fmt_length, fmt_number, fmt_power};
 
 /// The unit a [`Limit`] is written in.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -20,6 +20,10 @@ pub enum Unit {
     Degrees,
     /// Whole years (written without a unit: `1–110`).
     Years,
+    /// Per cent, written ` %`.
+    Percent,
+    /// A plain number such as a refractive index (no unit).
+    Number,
 }
 
 impl Unit {
@@ -28,7 +32,8 @@ impl Unit {
             Unit::Dioptres => " D",
             Unit::Millimetres => " mm",
             Unit::Centimetres => " cm",
-            Unit::Degrees | Unit::Years => "",
+            Unit::Percent => " %",
+            Unit::Degrees | Unit::Years | Unit::Number => "",
         }
     }
 }
@@ -44,6 +49,8 @@ enum Form {
     Powers,
     /// `6 D`: a threshold on a magnitude.
     Above,
+    /// `1.40–2.00`: a span written with two decimals.
+    Decimals,
 }
 
 /// A range of accepted (or usual) values with its unit.
@@ -116,6 +123,7 @@ impl fmt::Display for Limit {
             Form::Span => write!(f, "{}–{}{unit}", fmt_length(self.min), fmt_length(self.max)),
             Form::Powers => write!(f, "{} to {}", fmt_power(self.min), fmt_power(self.max)),
             Form::Above => write!(f, "{}{unit}", fmt_length(self.max)),
+            Form::Decimals => write!(f, "{}–{}{unit}", fmt_number(self.min), fmt_number(self.max)),
         }
     }
 }
@@ -153,6 +161,48 @@ pub const CYLINDER_WARN: Limit = Limit {
 pub const VERTEX_USUAL: Limit = Limit::span(8.0, 20.0, Unit::Millimetres);
 /// Any meridian beyond this: measure the vertex distance.
 pub const MEASURE_VERTEX: Limit = Limit::symmetric(4.0, Unit::Dioptres);
+
+/// Observed rotation of a toric contact lens, whole degrees either way (the
+/// amount; the direction is given apart). Beyond 90° a cylinder turned one
+/// way is the same as turned less the other way, so larger amounts are
+/// typing errors.
+pub const ROTATION: Limit = Limit::span(0.0, 90.0, Unit::Degrees);
+/// A rotation above this: a refit is usually better than compensating
+/// (common practice, no source).
+pub const ROTATION_WARN: Limit = Limit {
+    min: 0.0,
+    max: 30.0,
+    unit: Unit::Degrees,
+    form: Form::Above,
+};
+/// An over-refraction meridian beyond this: check the fit and the
+/// refraction (a residual this large is unusual over a fitted lens).
+pub const OVER_REFRACTION_WARN: Limit = Limit::symmetric(4.0, Unit::Dioptres);
+/// Front surface power (base curve) of a spectacle lens. Meniscus lenses
+/// have plus front surfaces; 0 is a plano front; +25 D (a radius near
+/// 21 mm at n = 1.523) is beyond any usual base curve, so more is a typing
+/// error. Biconcave fronts (negative) are rare and not accepted.
+pub const FRONT_SURFACE: Limit = Limit {
+    min: 0.0,
+    max: 25.0,
+    unit: Unit::Dioptres,
+    form: Form::Powers,
+};
+/// Centre thickness of a spectacle lens, mm: thinner than 0.5 mm is not
+/// made (high-index minus lenses reach about 1 mm); 20 mm is beyond the
+/// thickest high-plus lens.
+pub const THICKNESS: Limit = Limit::span(0.5, 20.0, Unit::Millimetres);
+/// Refractive index of a spectacle lens material: the usual ones run from
+/// 1.498 (CR-39) to about 1.9 (dense glass); 1.40–2.00 leaves a margin.
+pub const INDEX: Limit = Limit {
+    min: 1.4,
+    max: 2.0,
+    unit: Unit::Number,
+    form: Form::Decimals,
+};
+/// Difference in image size between the eyes, per cent: above about 3–5 %
+/// a difference may not be tolerated (common practice, no source).
+pub const ANISEIKONIA_TOLERANCE: Limit = Limit::span(3.0, 5.0, Unit::Percent);
 
 /// Typed vertex distances under this (but not 0) are questioned, mm.
 pub const VERTEX_SHORT_MM: f64 = 3.0;

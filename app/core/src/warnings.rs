@@ -75,6 +75,17 @@ pub enum WarningKind {
     AmplitudeUnreliable,
     /// The spectacle add is far from the tentative add for the age.
     AddDiffersFromAge,
+    /// A toric contact lens rotated more than about 30°: consider a refit.
+    RotationLarge,
+    /// A toric contact lens described as unstable: consider a refit.
+    RotationUnstable,
+    /// A rotation given where it has no meaning (spectacles, a spherical
+    /// lens): not used.
+    RotationIgnored,
+    /// The over-refraction has more cylinder than the worn lens.
+    OverRefractionCylinder,
+    /// An over-refraction meridian beyond ±4 D.
+    OverRefractionHigh,
 }
 
 pub(crate) fn warn(kind: WarningKind, field: Field, message: String) -> Warning {

@@ -7,6 +7,7 @@
 
 use core::fmt;
 
+use crate::lens_check::PRISM_NOT_CHECKED;
 use crate::limits::MEASURE_VERTEX;
 
 /// The calculations Lensplane offers (what a caution can be scoped to).
@@ -78,17 +79,23 @@ pub enum CautionKind {
     TrialAtDistance,
     /// Near figures are referred to the corneal vertex.
     NearReference,
+    /// Whose tolerances a lens check applies, and that others may apply.
+    ToleranceSource,
+    /// A lens check leaves prism and centration out.
+    PrismNotChecked,
 }
 
 impl CautionKind {
     /// Every kind, in the order a page lists them.
-    pub const ALL: [CautionKind; 11] = [
+    pub const ALL: [CautionKind; 13] = [
         CautionKind::StartingPoint,
         CautionKind::SphericalLeavesAstigmatism,
         CautionKind::MultifocalLabels,
         CautionKind::PopulationEstimate,
         CautionKind::TrialAtDistance,
         CautionKind::NearReference,
+        CautionKind::ToleranceSource,
+        CautionKind::PrismNotChecked,
         CautionKind::ThinLens,
         CautionKind::MeasureVertex,
         CautionKind::PresbyopeAccommodation,
@@ -109,6 +116,7 @@ impl CautionKind {
             | CautionKind::PopulationEstimate
             | CautionKind::TrialAtDistance
             | CautionKind::NearReference => Scope::Only(&[Near]),
+            CautionKind::ToleranceSource | CautionKind::PrismNotChecked => Scope::Only(&[LensCheck]),
         }
     }
 }
@@ -146,6 +154,10 @@ impl fmt::Display for CautionKind {
             CautionKind::NearReference => f.write_str(
                 "Accommodation is referred to the corneal vertex; the reading distance is taken from the plane chosen above.",
             ),
+            CautionKind::ToleranceSource => f.write_str(
+                "Tolerances are those of ANSI Z80.1-2015 as publicly summarised: confirm against the standard. Local regulation or a lab agreement may set others.",
+            ),
+            CautionKind::PrismNotChecked => f.write_str(PRISM_NOT_CHECKED),
         }
     }
 }

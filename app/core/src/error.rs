@@ -46,6 +46,10 @@ pub enum Field {
     Near,
     /// The amplitude-by-age figures.
     Amplitude,
+    /// The add read on a received lens.
+    MeasuredAdd,
+    /// The lens type of a lens check (single vision or progressive).
+    LensType,
 }
 
 impl Field {
@@ -65,6 +69,8 @@ impl Field {
             Field::Substitute => "spherical substitute",
             Field::Near => "near result",
             Field::Amplitude => "amplitude",
+            Field::MeasuredAdd => "measured add",
+            Field::LensType => "lens type",
         }
     }
 }
@@ -125,6 +131,8 @@ pub(crate) enum ErrorKind {
     Singular { power: f64 },
     /// A setting that cannot work.
     BadSetting { what: &'static str },
+    /// A link value that is not one of the offered choices.
+    UnknownChoice { typed: String, choices: &'static str },
 }
 
 impl Error {
@@ -225,6 +233,7 @@ impl fmt::Display for Error {
                 fmt_power(*power)
             ),
             ErrorKind::BadSetting { what } => write!(f, "setting: {what}"),
+            ErrorKind::UnknownChoice { typed, choices } => write!(f, "{noun} \"{typed}\" is not one of {choices}"),
         }
     }
 }

@@ -140,6 +140,15 @@ pub const ADD: Limit = Limit {
     form: Form::Powers,
 };
 
+/// The add read on a received lens. Wider than [`ADD`] (orders stop at
+/// +4.00) so that a lens that came back over-strong gets a verdict, not an
+/// input error; beyond +5.00 a reading is more likely a typo.
+pub const MEASURED_ADD: Limit = Limit {
+    min: 0.0,
+    max: 5.0,
+    unit: Unit::Dioptres,
+    form: Form::Powers,
+};
 /// A meridian beyond this draws a warning (check the entry).
 pub const SPHERE_WARN: Limit = Limit::symmetric(20.0, Unit::Dioptres);
 /// A cylinder above this draws a warning (check the entry).
@@ -180,6 +189,7 @@ mod tests {
             (CYLINDER_WARN, "6 D"),
             (VERTEX_USUAL, "8–20 mm"),
             (MEASURE_VERTEX, "±4 D"),
+            (MEASURED_ADD, "0.00 to +5.00"),
         ];
         for (limit, words) in cases {
             assert_eq!(limit.to_string(), words);
@@ -188,7 +198,17 @@ mod tests {
 
     #[test]
     fn edges_are_inside() {
-        for l in [SPHERE, CYLINDER, AXIS, VERTEX, READING, AGE, ADD, VERTEX_USUAL] {
+        for l in [
+            SPHERE,
+            CYLINDER,
+            AXIS,
+            VERTEX,
+            READING,
+            AGE,
+            ADD,
+            VERTEX_USUAL,
+            MEASURED_ADD,
+        ] {
             assert!(l.contains(l.min) && l.contains(l.max), "{l}");
             assert!(!l.contains(l.max + 0.01) && !l.contains(l.min - 0.01), "{l}");
         }

@@ -712,7 +712,14 @@ fn reading_distance(text: &str, bare_inches: bool) -> Result<Parsed<ReadingDista
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
 pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
-    let field = Field::Add;
+    let (Parsed { value, notices }, start) = read_add(text, Field::Add, limits::ADD)?;
+    let value = Add::new(value).map_err(|e| e.at(start))?;
+    Ok(Parsed { value, notices })
+}
+
+/// An add in the notation of [`parse_add`], attributed to `field` and
+/// checked against `limit`; also returns where the number starts.
+pub(crate) fn read_add(text: &str, field: Field, limit: Limit) -> Result<(Parsed<f64>, usize), Error> {
     let all = lex(text, field)?;
     let toks = if word(all.first()) == Some("add") {
         &all[1..]
@@ -731,12 +738,12 @@ pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
         _ => {}
     }
     let m = n.magnitude();
-    if !limits::ADD.contains(m) {
-        let suggestions = restored(n, limits::ADD.max).into_iter().map(fmt_power).collect();
+    if !limit.contains(m) {
+        let suggestions = restored(n, limit.max).into_iter().map(fmt_power).collect();
         return Err(Error::new(
             ErrorKind::OutOfRange {
                 typed: n.typed(),
-                limit: limits::ADD,
+                limit,
                 suggestions,
             },
             field,
@@ -754,8 +761,13 @@ pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
     if let Some(message) = off_step(field, m) {
         notices.push(notice(NoticeKind::OffStep, field, message));
     }
-    let value = Add::new(m).map_err(|e| e.at(t.start))?;
-    Ok(Parsed { value, notices })
+    Ok((
+        Parsed {
+            value: m + 0.0,
+            notices,
+        },
+        t.start,
+    ))
 }
 
 /// Parse an age in whole years (`50`, `50 y`, `50 years`).

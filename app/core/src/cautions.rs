@@ -83,11 +83,13 @@ pub enum CautionKind {
     ToleranceSource,
     /// A lens check leaves prism and centration out.
     PrismNotChecked,
+    /// A chart lists spheres: read each principal meridian of a cylinder.
+    ChartPerMeridian,
 }
 
 impl CautionKind {
     /// Every kind, in the order a page lists them.
-    pub const ALL: [CautionKind; 13] = [
+    pub const ALL: [CautionKind; 14] = [
         CautionKind::StartingPoint,
         CautionKind::SphericalLeavesAstigmatism,
         CautionKind::MultifocalLabels,
@@ -96,6 +98,7 @@ impl CautionKind {
         CautionKind::NearReference,
         CautionKind::ToleranceSource,
         CautionKind::PrismNotChecked,
+        CautionKind::ChartPerMeridian,
         CautionKind::ThinLens,
         CautionKind::MeasureVertex,
         CautionKind::PresbyopeAccommodation,
@@ -117,6 +120,7 @@ impl CautionKind {
             | CautionKind::TrialAtDistance
             | CautionKind::NearReference => Scope::Only(&[Near]),
             CautionKind::ToleranceSource | CautionKind::PrismNotChecked => Scope::Only(&[LensCheck]),
+            CautionKind::ChartPerMeridian => Scope::Only(&[Chart]),
         }
     }
 }
@@ -158,6 +162,9 @@ impl fmt::Display for CautionKind {
                 "Tolerances are those of ANSI Z80.1-2015 as publicly summarised: confirm against the standard. Local regulation or a lab agreement may set others.",
             ),
             CautionKind::PrismNotChecked => f.write_str(PRISM_NOT_CHECKED),
+            CautionKind::ChartPerMeridian => f.write_str(
+                "The chart lists spheres: for a cylinder, look up each principal meridian (sphere, and sphere + cylinder); never convert the cylinder by itself.",
+            ),
         }
     }
 }

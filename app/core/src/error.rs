@@ -50,6 +50,14 @@ pub enum Field {
     MeasuredAdd,
     /// The lens type of a lens check (single vision or progressive).
     LensType,
+    /// The smallest power size of a conversion chart.
+    ChartMin,
+    /// The largest power size of a conversion chart.
+    ChartMax,
+    /// The step between the powers of a conversion chart.
+    ChartStep,
+    /// The ladder a conversion chart rounds to.
+    Ladder,
 }
 
 impl Field {
@@ -71,6 +79,10 @@ impl Field {
             Field::Amplitude => "amplitude",
             Field::MeasuredAdd => "measured add",
             Field::LensType => "lens type",
+            Field::ChartMin => "lowest power",
+            Field::ChartMax => "highest power",
+            Field::ChartStep => "step",
+            Field::Ladder => "ladder",
         }
     }
 }
@@ -133,6 +145,21 @@ pub(crate) enum ErrorKind {
     BadSetting { what: &'static str },
     /// A link value that is not one of the offered choices.
     UnknownChoice { typed: String, choices: &'static str },
+    /// A chart's lowest power above its highest.
+    MinAboveMax { min: String, max: String },
+    /// A chart step of zero or less.
+    StepNotPositive { typed: String },
+    /// A chart figure that is not a whole number of quarter dioptres.
+    OffQuarter { typed: String, suggestions: Vec<String> },
+    /// A chart step that does not lead from the lowest to the highest power.
+    StepDoesNotDivide {
+        step: String,
+        min: String,
+        max: String,
+        suggestions: Vec<String>,
+    },
+    /// A chart with more rows than it prints.
+    TooManyRows { rows: usize, limit: Limit },
 }
 
 impl Error {
@@ -234,6 +261,31 @@ impl fmt::Display for Error {
             ),
             ErrorKind::BadSetting { what } => write!(f, "setting: {what}"),
             ErrorKind::UnknownChoice { typed, choices } => write!(f, "{noun} \"{typed}\" is not one of {choices}"),
+            ErrorKind::MinAboveMax { min, max } => write!(f, "{noun} {min} is above the highest power, {max}"),
+            ErrorKind::StepNotPositive { typed } => write!(f, "{noun} {typed} must be more than 0"),
+            ErrorKind::OffQuarter { typed, suggestions } => {
+                write!(f, "{noun} {typed} is not a whole number of quarter dioptres")?;
+                if !suggestions.is_empty() {
+                    write!(f, ": try {}", suggestions.join(" or "))?;
+                }
+                Ok(())
+            }
+            ErrorKind::StepDoesNotDivide {
+                step,
+                min,
+                max,
+                suggestions,
+            } => {
+                write!(f, "{noun} {step} does not lead from {min} to {max} in whole steps")?;
+                if !suggestions.is_empty() {
+                    write!(f, ": try a highest power of {}", suggestions.join(" or "))?;
+                }
+                Ok(())
+            }
+            ErrorKind::TooManyRows { rows, limit } => write!(
+                f,
+                "the chart would have {rows} rows, more than {limit}: use a larger step or a narrower range"
+            ),
         }
     }
 }

@@ -66,6 +66,7 @@
 //! | panel reports | [`vertex_report`], [`equivalent_report`], [`near_report`] | `report_*.rs` |
 //! | received-lens tolerance tables (ANSI Z80.1-2015, as data) | [`tolerances::Table`], [`tolerances::SPHERE_SV`] …, [`LensType`] | `tolerances.rs` |
 //! | lens check: received lens against its order | [`lens_check`], [`LensCheckInput`], [`LensCheckReport`], [`parse_measured_rx`], [`parse_measured_add`], [`axis_deviation`] | `lens_check.rs` |
+//! | printable vertex conversion chart | [`parse_chart`], [`ChartSettings`], [`Chart`], [`Chart::rows_for`], [`Chart::csv`] | `chart.rs` |
 //!
 //! The UI calls one report function per eye and panel and displays what it
 //! returns; it does no arithmetic, not even rounding for display (use the
@@ -80,14 +81,17 @@
 //! a change below a quarter step, off-step input, contact-lens powers outside
 //! the stock range. Within the hard limits no function returns NaN or
 //! infinity: where the far point lies at (or practically at) the new lens
-//! plane the result is an [`Error`].
+//! plane the result is an [`Error`] (a chart row says "no finite lens").
 //!
-//! Lens check: a measured add 0 to +5.00 (orders stop at +4.00), a
+//! Lens check: a measured add 0 to +5.00 (orders stop at +4.00). Chart:
+//! power sizes 0–30 D (the sphere limit), a step of 0.25–30 D, every figure a
+//! whole number of quarter dioptres, at most 200 rows. Each is a
 //! [`limits::Limit`] whose words are its message.
 //!
 //! ## Decisions where the notes were silent
 //!
-//! Each is tested in `tests/decisions.rs`; 14–21 in `tests/lens_check.rs`.
+//! Each is tested in `tests/decisions.rs`; 14–21 in `tests/lens_check.rs`,
+//! 22–27 in `tests/chart.rs`.
 //!
 //! 1. **Singular moves.** A compensated meridian beyond ±100 D is reported as
 //!    an error ("no finite lens…"), as is 1 − δF = 0 exactly. Within the
@@ -181,11 +185,34 @@
 //!     default when missing or empty) and `pal` (progressive), any case.
 //! 21. **Readings** use the prescription notation; the off-step notice is
 //!     dropped for them (focimeter readings are rarely on quarter steps).
+//! 22. **Chart figures.** `min` and `max` are sizes (both signs listed; a
+//!     typed sign is read as the size, with a notice); sizes and the step
+//!     are whole numbers of quarter dioptres (the chart lists orderable
+//!     spectacle powers); the step must lead from `min` to `max` exactly
+//!     (the error offers the nearest highest powers that it reaches).
+//! 23. **Chart rows.** Plano once (when `min` is 0), then the minus powers by
+//!     size, then the plus powers. At most 200 rows ([`limits::CHART_ROWS`]):
+//!     about four printed pages; the whole range in quarter steps (241 rows)
+//!     belongs on the vertex panel, not a wall.
+//! 24. **Chart rounding** is the vertex panel's, from
+//!     [`OrderSettings::default`]: [`compensate_power`], then the ladder's
+//!     round with its tie rule (toward plus). Ladder link values `cl`
+//!     (contact-lens steps) and `spec` (spectacle quarter steps); missing or
+//!     empty chooses as the vertex panel does (cornea → `cl`, else `spec`).
+//! 25. **A row with no finite lens** (far point at, or practically at, the
+//!     new plane) stays in the chart with its error; it shows
+//!     "no finite lens" and "none", never a number.
+//! 26. **Chart CSV**: RFC 4180 (commas, CRLF after every line), ASCII only,
+//!     the header row then the rows' cells exactly as shown; no title line.
+//! 27. **Highlighted rows** ([`Chart::rows_for`]) are the rows equal, to the
+//!     hundredth, to a carried prescription's principal meridians taken at
+//!     the chart's `from` plane; a meridian between rows has none.
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
 
 mod amplitude;
 mod cautions;
+mod chart;
 mod decimal;
 mod editing;
 mod equivalent;
@@ -213,6 +240,7 @@ mod warnings;
 
 pub use amplitude::{amplitude_reliable, hofstetter, tentative_add, Amplitude, TentativeAdd};
 pub use cautions::{cautions, cautions_for, Calculation, Caution, CautionKind, Scope};
+pub use chart::{parse_chart, Chart, ChartQuery, ChartRow, ChartSection, ChartSettings, ChartValue};
 pub use decimal::read_decimal;
 pub use editing::{step_text, toggle_sign, StepKind};
 pub use equivalent::{

@@ -56,17 +56,19 @@ pub enum NoticeKind {
     UnitConverted,
     /// A bare number read in the unit it can only be.
     UnitAssumed,
+    /// A sign typed where only a size counts (a chart lists both signs).
+    SignIgnored,
 }
 
 fn notice(kind: NoticeKind, field: Field, message: String) -> Notice {
     Notice { kind, field, message }
 }
 
-fn unexpected(t: &Token, field: Field) -> Error {
+pub(crate) fn unexpected(t: &Token, field: Field) -> Error {
     Error::new(ErrorKind::Unexpected { text: t.raw.clone() }, field, Some(t.start))
 }
 
-fn word(t: Option<&Token>) -> Option<&str> {
+pub(crate) fn word(t: Option<&Token>) -> Option<&str> {
     match t.map(|t| &t.tok) {
         Some(Tok::Word(w)) => Some(w.as_str()),
         _ => None,
@@ -541,9 +543,9 @@ impl Rx {
     }
 }
 
-type NumberAndUnit<'a> = (&'a Token, &'a Num, Option<&'a Token>);
+pub(crate) type NumberAndUnit<'a> = (&'a Token, &'a Num, Option<&'a Token>);
 
-fn single_number(toks: &[Token], field: Field) -> Result<NumberAndUnit<'_>, Error> {
+pub(crate) fn single_number(toks: &[Token], field: Field) -> Result<NumberAndUnit<'_>, Error> {
     let Some(t) = toks.first() else {
         return Err(Error::new(ErrorKind::Empty, field, None));
     };

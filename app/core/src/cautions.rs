@@ -7,6 +7,7 @@
 
 use core::fmt;
 
+use crate::lens_check::PRISM_NOT_CHECKED;
 use crate::limits::MEASURE_VERTEX;
 
 /// The calculations Lensplane offers (what a caution can be scoped to).
@@ -85,11 +86,17 @@ pub enum CautionKind {
     ImageSizeEstimate,
     /// Refer when symptoms suggest aniseikonia.
     AniseikoniaSymptoms,
+    /// Whose tolerances a lens check applies, and that others may apply.
+    ToleranceSource,
+    /// A lens check leaves prism and centration out.
+    PrismNotChecked,
+    /// A chart lists spheres: read each principal meridian of a cylinder.
+    ChartPerMeridian,
 }
 
 impl CautionKind {
     /// Every kind, in the order a page lists them.
-    pub const ALL: [CautionKind; 14] = [
+    pub const ALL: [CautionKind; 17] = [
         CautionKind::StartingPoint,
         CautionKind::ConfirmSettled,
         CautionKind::StableRotation,
@@ -100,6 +107,9 @@ impl CautionKind {
         CautionKind::MultifocalLabels,
         CautionKind::PopulationEstimate,
         CautionKind::TrialAtDistance,
+        CautionKind::ToleranceSource,
+        CautionKind::PrismNotChecked,
+        CautionKind::ChartPerMeridian,
         CautionKind::ThinLens,
         CautionKind::MeasureVertex,
         CautionKind::PresbyopeAccommodation,
@@ -123,6 +133,8 @@ impl CautionKind {
                 Scope::Only(&[OverRefraction])
             }
             CautionKind::ImageSizeEstimate | CautionKind::AniseikoniaSymptoms => Scope::Only(&[ImageSize]),
+            CautionKind::ToleranceSource | CautionKind::PrismNotChecked => Scope::Only(&[LensCheck]),
+            CautionKind::ChartPerMeridian => Scope::Only(&[Chart]),
         }
     }
 }
@@ -170,6 +182,13 @@ impl fmt::Display for CautionKind {
             ),
             CautionKind::AniseikoniaSymptoms => f.write_str(
                 "Where symptoms (eyestrain, headache, unequal or double images) suggest aniseikonia, measure or refer.",
+            ),
+            CautionKind::ToleranceSource => f.write_str(
+                "Tolerances are those of ANSI Z80.1-2015 as publicly summarised: confirm against the standard. Local regulation or a lab agreement may set others.",
+            ),
+            CautionKind::PrismNotChecked => f.write_str(PRISM_NOT_CHECKED),
+            CautionKind::ChartPerMeridian => f.write_str(
+                "The chart lists spheres: for a cylinder, look up each principal meridian (sphere, and sphere + cylinder); never convert the cylinder by itself.",
             ),
         }
     }

@@ -52,7 +52,7 @@ pub enum Field {
     OverRefractionVertex,
     /// The observed rotation of a toric contact lens.
     Rotation,
-    /// The kind of lens (soft or rigid).
+    /// The kind of lens: soft or rigid (over-refraction), single vision or progressive (lens check).
     LensType,
     /// The front surface power (base curve) of a spectacle lens.
     FrontSurface,
@@ -60,6 +60,16 @@ pub enum Field {
     Thickness,
     /// The refractive index of a spectacle lens.
     Index,
+    /// The add read on a received lens.
+    MeasuredAdd,
+    /// The smallest power size of a conversion chart.
+    ChartMin,
+    /// The largest power size of a conversion chart.
+    ChartMax,
+    /// The step between the powers of a conversion chart.
+    ChartStep,
+    /// The ladder a conversion chart rounds to.
+    Ladder,
 }
 
 impl Field {
@@ -86,6 +96,11 @@ impl Field {
             Field::FrontSurface => "front surface",
             Field::Thickness => "centre thickness",
             Field::Index => "refractive index",
+            Field::MeasuredAdd => "measured add",
+            Field::ChartMin => "lowest power",
+            Field::ChartMax => "highest power",
+            Field::ChartStep => "step",
+            Field::Ladder => "ladder",
         }
     }
 }
@@ -156,6 +171,23 @@ pub(crate) enum ErrorKind {
     RigidLens,
     /// A spectacle vertex distance of 0 mm where spectacles are needed.
     SpectacleVertexNeeded,
+    /// A link value that is not one of the offered choices.
+    UnknownChoice { typed: String, choices: &'static str },
+    /// A chart's lowest power above its highest.
+    MinAboveMax { min: String, max: String },
+    /// A chart step of zero or less.
+    StepNotPositive { typed: String },
+    /// A chart figure that is not a whole number of quarter dioptres.
+    OffQuarter { typed: String, suggestions: Vec<String> },
+    /// A chart step that does not lead from the lowest to the highest power.
+    StepDoesNotDivide {
+        step: String,
+        min: String,
+        max: String,
+        suggestions: Vec<String>,
+    },
+    /// A chart with more rows than it prints.
+    TooManyRows { rows: usize, limit: Limit },
 }
 
 impl Error {
@@ -270,6 +302,32 @@ impl fmt::Display for Error {
             ErrorKind::SpectacleVertexNeeded => {
                 f.write_str("vertex distance 0 mm is a contact lens: give the spectacle vertex distance")
             }
+            ErrorKind::UnknownChoice { typed, choices } => write!(f, "{noun} \"{typed}\" is not one of {choices}"),
+            ErrorKind::MinAboveMax { min, max } => write!(f, "{noun} {min} is above the highest power, {max}"),
+            ErrorKind::StepNotPositive { typed } => write!(f, "{noun} {typed} must be more than 0"),
+            ErrorKind::OffQuarter { typed, suggestions } => {
+                write!(f, "{noun} {typed} is not a whole number of quarter dioptres")?;
+                if !suggestions.is_empty() {
+                    write!(f, ": try {}", suggestions.join(" or "))?;
+                }
+                Ok(())
+            }
+            ErrorKind::StepDoesNotDivide {
+                step,
+                min,
+                max,
+                suggestions,
+            } => {
+                write!(f, "{noun} {step} does not lead from {min} to {max} in whole steps")?;
+                if !suggestions.is_empty() {
+                    write!(f, ": try a highest power of {}", suggestions.join(" or "))?;
+                }
+                Ok(())
+            }
+            ErrorKind::TooManyRows { rows, limit } => write!(
+                f,
+                "the chart would have {rows} rows, more than {limit}: use a larger step or a narrower range"
+            ),
         }
     }
 }

@@ -79,6 +79,9 @@
 //! | checked quantities | [`VertexDistance`], [`ReadingDistance`], [`Age`], [`Add`], [`EyePair`] | `units.rs` |
 //! | the one error type | [`Error`], [`Field`] | `error.rs` |
 //! | panel reports | [`vertex_report`], [`equivalent_report`], [`near_report`], [`over_refraction_report`], [`image_size_report`], [`compare_image_sizes`] | `report_*.rs` |
+//! | received-lens tolerance tables (ANSI Z80.1-2015, as data) | [`tolerances::Table`], [`tolerances::SPHERE_SV`] …, [`LensType`] | `tolerances.rs` |
+//! | lens check: received lens against its order | [`lens_check`], [`LensCheckInput`], [`LensCheckReport`], [`parse_measured_rx`], [`parse_measured_add`], [`axis_deviation`] | `lens_check.rs` |
+//! | printable vertex conversion chart | [`parse_chart`], [`ChartSettings`], [`Chart`], [`Chart::rows_for`], [`Chart::csv`] | `chart.rs` |
 //!
 //! The UI calls one report function per eye and panel and displays what it
 //! returns; it does no arithmetic, not even rounding for display (use the
@@ -100,12 +103,18 @@
 //! differences between the eyes are read against about 3–5 % (common
 //! practice). Within the hard limits no function returns NaN or
 //! infinity: where the far point lies at (or practically at) the new lens
-//! plane the result is an [`Error`].
+//! plane the result is an [`Error`] (a chart row says "no finite lens").
+//!
+//! Lens check: a measured add 0 to +5.00 (orders stop at +4.00). Chart:
+//! power sizes 0–30 D (the sphere limit), a step of 0.25–30 D, every figure a
+//! whole number of quarter dioptres, at most 200 rows. Each is a
+//! [`limits::Limit`] whose words are its message.
 //!
 //! ## Decisions where the notes were silent
 //!
-//! Each is tested in `tests/decisions.rs`; 14–19 in `tests/overrefraction.rs`
-//! and 20–24 in `tests/image_size.rs`.
+//! Each is tested in `tests/decisions.rs`; 14–19 in `tests/overrefraction.rs`,
+//! 20–24 in `tests/image_size.rs`, 25–32 in `tests/lens_check.rs` and 33–38
+//! in `tests/chart.rs`.
 //!
 //! 1. **Singular moves.** A compensated meridian beyond ±100 D is reported as
 //!    an error ("no finite lens…"), as is 1 − δF = 0 exactly. Within the
@@ -210,17 +219,81 @@
 //!     lost its decimal point (`16`) is refused with the reading it may mean.
 //! 24. **Cautions.** The over-refraction page has its own model caution
 //!     instead of the general thin-lens one, which says "no toric rotation".
+//! 25. **"Sphere meridian"** (lens check) is read, as the notes put it "in the
+//!     minus-cylinder convention", as the sphere of the minus-cylinder form:
+//!     the algebraically most plus principal meridian. Order and reading are
+//!     both transposed to minus-cylinder form before comparing, so either
+//!     form typed gives the same check; the cylinder is compared as the
+//!     minus cylinder (a negative deviation is more cylinder than ordered).
+//! 26. **Judged as shown.** Every power is compared in whole hundredths of a
+//!     dioptre, each value rounded as it prints (two decimals, half away
+//!     from zero), and axes in whole degrees; deviation = measured − ordered.
+//!     A deviation equal to the tolerance is within. Integer arithmetic: no
+//!     epsilon, no floating-point edge. Bands are chosen by the **ordered**
+//!     value's size: a band covers sizes above the previous edge up to and
+//!     including its own ("up to 2.00" includes 2.00; 2.01 is "over 2.00").
+//! 27. **Percentage tolerances** are p % of the ordered size, rounded down
+//!     to a whole hundredth (2 % of 8.00 = 0.16; 2 % of 6.75 = 0.135 → 0.13).
+//!     For readings in hundredths this judges exactly as the unrounded
+//!     percentage; the words show both figures when they differ. The
+//!     standard's steps are kept literally even where a percentage band
+//!     starts below the fixed band before it (progressive cylinder over 3.50:
+//!     5 % of 3.51 is 0.17, against 0.18 up to 3.50).
+//! 28. **Axis.** Deviation measured − ordered the short way round, signed,
+//!     −89° to +90° (+: the measured axis is at a larger ISO 8429 angle,
+//!     counter-clockwise, wrapping through 180); compared by its size. Not
+//!     checked for a spherical order, for an ordered cylinder under 0.12 D
+//!     (no tolerance defined), or when the reading has no cylinder (no axis
+//!     to read; the cylinder item then fails unless within its tolerance).
+//! 29. **Adds in a lens check.** The ordered add keeps its limit (0 to
+//!     +4.00, decision 10), so the "over +4.00: ±0.18" row is data reached
+//!     by the table alone; the measured add is accepted to +5.00 so an
+//!     over-strong lens gets a verdict. An ordered add needs a measured add
+//!     (else "measured add is empty"); with no add ordered the add is not
+//!     checked, whatever was read. The add table is the same for both lens
+//!     types.
+//! 30. **Overall verdict** per eye: outside tolerance when any judged item
+//!     is, within otherwise; items not checked do not count. Prism and
+//!     centration are never checked ([`PRISM_NOT_CHECKED`]).
+//! 31. **Lens type** link values `sv` (single vision or multifocal, the
+//!     default when missing or empty) and `pal` (progressive), any case.
+//! 32. **Readings** use the prescription notation; the off-step notice is
+//!     dropped for them (focimeter readings are rarely on quarter steps).
+//! 33. **Chart figures.** `min` and `max` are sizes (both signs listed; a
+//!     typed sign is read as the size, with a notice); sizes and the step
+//!     are whole numbers of quarter dioptres (the chart lists orderable
+//!     spectacle powers); the step must lead from `min` to `max` exactly
+//!     (the error offers the nearest highest powers that it reaches).
+//! 34. **Chart rows.** Plano once (when `min` is 0), then the minus powers by
+//!     size, then the plus powers. At most 200 rows ([`limits::CHART_ROWS`]):
+//!     about four printed pages; the whole range in quarter steps (241 rows)
+//!     belongs on the vertex panel, not a wall.
+//! 35. **Chart rounding** is the vertex panel's, from
+//!     [`OrderSettings::default`]: [`compensate_power`], then the ladder's
+//!     round with its tie rule (toward plus). Ladder link values `cl`
+//!     (contact-lens steps) and `spec` (spectacle quarter steps); missing or
+//!     empty chooses as the vertex panel does (cornea → `cl`, else `spec`).
+//! 36. **A row with no finite lens** (far point at, or practically at, the
+//!     new plane) stays in the chart with its error; it shows
+//!     "no finite lens" and "none", never a number.
+//! 37. **Chart CSV**: RFC 4180 (commas, CRLF after every line), ASCII only,
+//!     the header row then the rows' cells exactly as shown; no title line.
+//! 38. **Highlighted rows** ([`Chart::rows_for`]) are the rows equal, to the
+//!     hundredth, to a carried prescription's principal meridians taken at
+//!     the chart's `from` plane; a meridian between rows has none.
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
 
 mod amplitude;
 mod cautions;
+mod chart;
 mod cursor;
 mod decimal;
 mod editing;
 mod equivalent;
 mod error;
 mod format;
+mod lens_check;
 mod lens_form;
 mod lex;
 pub mod limits;
@@ -241,6 +314,7 @@ mod rotation;
 mod rounding;
 mod rx;
 mod settings_text;
+pub mod tolerances;
 mod toric;
 mod units;
 mod vectors;
@@ -249,6 +323,7 @@ mod warnings;
 
 pub use amplitude::{amplitude_reliable, hofstetter, tentative_add, Amplitude, TentativeAdd};
 pub use cautions::{cautions, cautions_for, Calculation, Caution, CautionKind, Scope};
+pub use chart::{parse_chart, Chart, ChartQuery, ChartRow, ChartSection, ChartSettings, ChartValue};
 pub use decimal::read_decimal;
 pub use editing::{step_text, toggle_sign, StepKind};
 pub use equivalent::{
@@ -256,6 +331,10 @@ pub use equivalent::{
 };
 pub use error::{Error, Field};
 pub use format::{fmt_axis, fmt_dioptres, fmt_length, fmt_number, fmt_power, fmt_sphere};
+pub use lens_check::{
+    axis_deviation, lens_check, parse_measured_add, parse_measured_rx, CheckItem, CheckVerdict, ItemCheck, ItemResult,
+    Judgement, LensCheckInput, LensCheckReport, PRISM_NOT_CHECKED,
+};
 pub use lens_form::{parse_front_surface, parse_index, parse_thickness_mm, LensForm};
 pub use magnification::{
     meridian_size, power_factor, shape_factor, MeridianSize, ANTERIOR_FOCAL_POINT_MM, ENTRANCE_PUPIL_MM,
@@ -287,6 +366,7 @@ pub use rounding::{
 };
 pub use rx::Rx;
 pub use settings_text::{parse_cylinder_limit, parse_ratio_limit};
+pub use tolerances::LensType;
 pub use toric::{choose_toric, round_axis, ToricChoice, ToricSettings};
 pub use units::{Add, Age, Eye, EyePair, Measured, ReadingDistance, VertexDistance};
 pub use vectors::PowerVector;

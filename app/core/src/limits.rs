@@ -24,6 +24,8 @@ pub enum Unit {
     Percent,
     /// A plain number such as a refractive index (no unit).
     Number,
+    /// Rows of a printed table, written `rows`.
+    Rows,
 }
 
 impl Unit {
@@ -33,6 +35,7 @@ impl Unit {
             Unit::Millimetres => " mm",
             Unit::Centimetres => " cm",
             Unit::Percent => " %",
+            Unit::Rows => " rows",
             Unit::Degrees | Unit::Years | Unit::Number => "",
         }
     }
@@ -148,6 +151,34 @@ pub const ADD: Limit = Limit {
     form: Form::Powers,
 };
 
+/// The add read on a received lens. Wider than [`ADD`] (orders stop at
+/// +4.00) so that a lens that came back over-strong gets a verdict, not an
+/// input error; beyond +5.00 a reading is more likely a typo.
+pub const MEASURED_ADD: Limit = Limit {
+    min: 0.0,
+    max: 5.0,
+    unit: Unit::Dioptres,
+    form: Form::Powers,
+};
+/// Power sizes of a conversion chart (both signs are listed): up to the
+/// sphere input limit.
+pub const CHART_POWER: Limit = Limit::span(0.0, SPHERE.max, Unit::Dioptres);
+/// The step between a conversion chart's powers.
+pub const CHART_STEP: Limit = Limit::span(CHART_QUARTER, SPHERE.max, Unit::Dioptres);
+/// Most rows a conversion chart prints: about four pages at 50 rows. The
+/// whole input range in quarter steps (241 rows) is better read on the
+/// vertex panel than from a wall; the figures cost nothing to compute, so
+/// the cap is about paper, not speed.
+pub const CHART_ROWS: Limit = Limit {
+    min: 1.0,
+    max: 200.0,
+    unit: Unit::Rows,
+    form: Form::Above,
+};
+/// Every chart power size and step is a whole number of these (dioptres):
+/// the chart lists spectacle powers as they are ordered.
+pub const CHART_QUARTER: f64 = 0.25;
+
 /// A meridian beyond this draws a warning (check the entry).
 pub const SPHERE_WARN: Limit = Limit::symmetric(20.0, Unit::Dioptres);
 /// A cylinder above this draws a warning (check the entry).
@@ -230,6 +261,10 @@ mod tests {
             (CYLINDER_WARN, "6 D"),
             (VERTEX_USUAL, "8–20 mm"),
             (MEASURE_VERTEX, "±4 D"),
+            (MEASURED_ADD, "0.00 to +5.00"),
+            (CHART_POWER, "0–30 D"),
+            (CHART_STEP, "0.25–30 D"),
+            (CHART_ROWS, "200 rows"),
         ];
         for (limit, words) in cases {
             assert_eq!(limit.to_string(), words);
@@ -238,7 +273,19 @@ mod tests {
 
     #[test]
     fn edges_are_inside() {
-        for l in [SPHERE, CYLINDER, AXIS, VERTEX, READING, AGE, ADD, VERTEX_USUAL] {
+        for l in [
+            SPHERE,
+            CYLINDER,
+            AXIS,
+            VERTEX,
+            READING,
+            AGE,
+            ADD,
+            VERTEX_USUAL,
+            MEASURED_ADD,
+            CHART_POWER,
+            CHART_STEP,
+        ] {
             assert!(l.contains(l.min) && l.contains(l.max), "{l}");
             assert!(!l.contains(l.max + 0.01) && !l.contains(l.min - 0.01), "{l}");
         }

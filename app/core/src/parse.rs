@@ -6,7 +6,8 @@
 //! missing sign, a missing axis, an axis outside 1–180 or a number that looks
 //! like it lost its decimal point is an error that asks, never a guess.
 
-use crate::cursor::{unexpected, word, Cursor};
+use crate::cursor::Cursor;
+pub(crate) use crate::cursor::{unexpected, word};
 use crate::error::{Error, ErrorKind, Field};
 use crate::format::{fmt_length, fmt_power};
 use crate::lex::{lex, Num, Sign, Tok, Token};
@@ -57,6 +58,8 @@ pub enum NoticeKind {
     UnitConverted,
     /// A bare number read in the unit it can only be.
     UnitAssumed,
+    /// A sign typed where only a size counts (a chart lists both signs).
+    SignIgnored,
 }
 
 fn notice(kind: NoticeKind, field: Field, message: String) -> Notice {
@@ -497,9 +500,9 @@ impl Rx {
     }
 }
 
-type NumberAndUnit<'a> = (&'a Token, &'a Num, Option<&'a Token>);
+pub(crate) type NumberAndUnit<'a> = (&'a Token, &'a Num, Option<&'a Token>);
 
-fn single_number(toks: &[Token], field: Field) -> Result<NumberAndUnit<'_>, Error> {
+pub(crate) fn single_number(toks: &[Token], field: Field) -> Result<NumberAndUnit<'_>, Error> {
     let Some(t) = toks.first() else {
         return Err(Error::new(ErrorKind::Empty, field, None));
     };
@@ -668,7 +671,14 @@ fn reading_distance(text: &str, bare_inches: bool) -> Result<Parsed<ReadingDista
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
 pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
-    let field = Field::Add;
+    let (Parsed { value, notices }, start) = read_add(text, Field::Add, limits::ADD)?;
+    let value = Add::new(value).map_err(|e| e.at(start))?;
+    Ok(Parsed { value, notices })
+}
+
+/// An add in the notation of [`parse_add`], attributed to `field` and
+/// checked against `limit`; also returns where the number starts.
+pub(crate) fn read_add(text: &str, field: Field, limit: Limit) -> Result<(Parsed<f64>, usize), Error> {
     let all = lex(text, field)?;
     let toks = if word(all.first()) == Some("add") {
         &all[1..]
@@ -687,12 +697,12 @@ pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
         _ => {}
     }
     let m = n.magnitude();
-    if !limits::ADD.contains(m) {
-        let suggestions = restored(n, limits::ADD.max).into_iter().map(fmt_power).collect();
+    if !limit.contains(m) {
+        let suggestions = restored(n, limit.max).into_iter().map(fmt_power).collect();
         return Err(Error::new(
             ErrorKind::OutOfRange {
                 typed: n.typed(),
-                limit: limits::ADD,
+                limit,
                 suggestions,
             },
             field,
@@ -710,8 +720,13 @@ pub fn parse_add(text: &str) -> Result<Parsed<Add>, Error> {
     if let Some(message) = off_step(field, m) {
         notices.push(notice(NoticeKind::OffStep, field, message));
     }
-    let value = Add::new(m).map_err(|e| e.at(t.start))?;
-    Ok(Parsed { value, notices })
+    Ok((
+        Parsed {
+            value: m + 0.0,
+            notices,
+        },
+        t.start,
+    ))
 }
 
 /// Parse an age in whole years (`50`, `50 y`, `50 years`).

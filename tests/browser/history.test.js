@@ -140,7 +140,7 @@ test('filter by text (label, power) and by calculation, kept in the link', async
   await page.getByLabel('Filter').fill('');
   const options = await page.getByLabel('Calculation').locator('option').allTextContents();
   assert.equal(options[0], 'All calculations');
-  for (const name of ['Vertex', 'Sph. equivalent', 'Near']) assert.ok(options.includes(name), name);
+  for (const name of ['Vertex', 'Spherical equivalent', 'Near']) assert.ok(options.includes(name), name);
   await page.getByLabel('Calculation').selectOption('near');
   await count(page).getByText('4 of 12 entries match.').waitFor();
   assert.equal(await entries(page).filter({ hasText: 'Near' }).count(), 4);

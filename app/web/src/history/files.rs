@@ -87,6 +87,25 @@ fn field(text: &str, guard: bool) -> String {
     }
 }
 
+/// Trade notation with every axis after `×` written with three digits
+/// (`×10` → `×010`), as orders are written: entries saved by earlier
+/// versions printed `×10`, and the export shows them as today's do.
+pub fn three_digit_axes(text: &str) -> String {
+    let mut out = String::with_capacity(text.len() + 4);
+    let mut rest = text;
+    while let Some(at) = rest.find('×') {
+        let (before, after) = rest.split_at(at + '×'.len_utf8());
+        out.push_str(before);
+        let digits = after.bytes().take_while(u8::is_ascii_digit).count();
+        if (1..3).contains(&digits) {
+            out.push_str(&"00"[..3 - digits]);
+        }
+        rest = after;
+    }
+    out.push_str(rest);
+    out
+}
+
 /// One row per eye per calculation, newest first, local times, trade
 /// notation; the calculation as its stable id. Starts with a byte-order
 /// mark so spreadsheets read the × sign.
@@ -101,9 +120,9 @@ pub fn to_csv<Tz: TimeZone>(entries: &[Entry], tz: &Tz) -> String {
                 e.destination.id().into(),
                 field(&e.label, true),
                 crate::widgets::eye_words(eye.eye).1.into(),
-                field(&eye.input, false),
-                field(&eye.result, false),
-                field(eye.order.as_deref().unwrap_or(""), false),
+                field(&three_digit_axes(&eye.input), false),
+                field(&three_digit_axes(&eye.result), false),
+                field(&three_digit_axes(eye.order.as_deref().unwrap_or("")), false),
             ];
             out.push_str(&cells.join(","));
             out.push_str("\r\n");
@@ -114,6 +133,17 @@ pub fn to_csv<Tz: TimeZone>(entries: &[Entry], tz: &Tz) -> String {
 
 #[cfg(test)]
 mod tests {
+    #[test]
+    fn axes_print_with_three_digits_in_the_export() {
+        assert_eq!(super::three_digit_axes("-0.50 -0.50 ×10"), "-0.50 -0.50 ×010");
+        assert_eq!(
+            super::three_digit_axes("-1.00 -0.25 ×5 add +2.00"),
+            "-1.00 -0.25 ×005 add +2.00"
+        );
+        assert_eq!(super::three_digit_axes("+1.00 -2.00 ×180"), "+1.00 -2.00 ×180");
+        assert_eq!(super::three_digit_axes("-4.00 DS"), "-4.00 DS");
+    }
+
     use super::super::entry::{EyeSummary, Invalid};
     use super::*;
     use crate::link::Destination;

@@ -10,7 +10,7 @@
 
 use crate::history::calendar::{clock, day_words, iso_date, local};
 use crate::history::entry::entries_words;
-use crate::history::files::{to_csv, to_json, unreadable_json, IMPORT_MAX};
+use crate::history::files::{three_digit_axes, to_csv, to_json, unreadable_json, IMPORT_MAX};
 use crate::history::search::filter;
 use crate::history::{download, Action, Entry, History, StoreError};
 use crate::link::{href, Destination, Query};
@@ -94,10 +94,10 @@ fn entry_item(e: &Entry, base: &str) -> web_sys::Element {
     for y in &e.eyes {
         let row = el("li", "", "");
         add(&row, &el("b", "", eye_words(y.eye).1));
-        let _ = row.append_with_str_1(&format!(" {} → ", y.input));
-        add(&row, &el("span", "rx", &y.result));
+        let _ = row.append_with_str_1(&format!(" {} → ", three_digit_axes(&y.input)));
+        add(&row, &el("span", "rx", &three_digit_axes(&y.result)));
         if let Some(o) = &y.order {
-            let _ = row.append_with_str_1(&format!(" · order {o}"));
+            let _ = row.append_with_str_1(&format!(" · order {}", three_digit_axes(o)));
         }
         add(&eyes, &row);
     }

@@ -25,6 +25,14 @@ pub enum Destination {
     Vertex,
     Equivalent,
     Near,
+    /// A worn lens combined with the over-refraction found over it.
+    OverRefraction,
+    /// Spectacle against contact-lens magnification.
+    ImageSize,
+    /// A printable vertex conversion chart.
+    Chart,
+    /// A received lens checked against its order.
+    LensCheck,
     History,
     /// What the tool computes, the model, the cautions, the version.
     About,
@@ -32,10 +40,14 @@ pub enum Destination {
 
 impl Destination {
     /// Every destination.
-    pub const ALL: [Destination; 5] = [
+    pub const ALL: [Destination; 9] = [
         Destination::Vertex,
         Destination::Equivalent,
         Destination::Near,
+        Destination::OverRefraction,
+        Destination::ImageSize,
+        Destination::Chart,
+        Destination::LensCheck,
         Destination::History,
         Destination::About,
     ];
@@ -46,6 +58,10 @@ impl Destination {
             Destination::Vertex => "/vertex",
             Destination::Equivalent => "/equivalent",
             Destination::Near => "/near",
+            Destination::OverRefraction => "/over-refraction",
+            Destination::ImageSize => "/image-size",
+            Destination::Chart => "/chart",
+            Destination::LensCheck => "/lens-check",
             Destination::History => "/history",
             Destination::About => "/about",
         }
@@ -101,6 +117,10 @@ impl Destination {
             Destination::Vertex => "Vertex",
             Destination::Equivalent => "Spherical equivalent",
             Destination::Near => "Near",
+            Destination::OverRefraction => "Over-refraction",
+            Destination::ImageSize => "Image size",
+            Destination::Chart => "Conversion chart",
+            Destination::LensCheck => "Lens check",
             Destination::History => "History",
             Destination::About => "About",
         }
@@ -112,8 +132,54 @@ impl Destination {
             Destination::Vertex => &["r", "l", "from", "to", "form"],
             Destination::Equivalent => &["r", "l", "from", "to", "cylmax", "oblmax", "ratio"],
             Destination::Near => &["r", "l", "add", "from", "to", "reading", "unit", "measured", "age"],
+            Destination::OverRefraction => &[
+                "r",
+                "l",
+                "ror",
+                "lor",
+                "worn",
+                "at",
+                "to",
+                "rrot",
+                "lrot",
+                "runstable",
+                "lunstable",
+                "lens",
+            ],
+            Destination::ImageSize => &["r", "l", "from", "rf", "rt", "rn", "lf", "lt", "ln"],
+            Destination::Chart => &["from", "to", "min", "max", "step", "ladder", "r", "l"],
+            Destination::LensCheck => &["r", "l", "rm", "lm", "add", "radd", "ladd", "type"],
             Destination::History => &["q", "panel"],
             Destination::About => &[],
+        }
+    }
+
+    /// Whether the navigation carries the value of `key` into this
+    /// destination's link from the calculators opened before. Only what means
+    /// the same thing carries: the refraction and its planes into the
+    /// calculators that start from a refraction, never into the lens check
+    /// (whose `r` and `l` are the lens ordered) or the over-refraction (whose
+    /// `r` and `l` are the lens worn).
+    pub fn carries(self, key: &str) -> bool {
+        match self {
+            Destination::LensCheck | Destination::OverRefraction | Destination::About => false,
+            Destination::ImageSize => matches!(key, "r" | "l" | "from"),
+            _ => self.keys().contains(&key),
+        }
+    }
+
+    /// The calculation whose standing cautions the page shows.
+    pub fn calculation(self) -> Option<lensplane_core::Calculation> {
+        use lensplane_core::Calculation as C;
+        match self {
+            Destination::Vertex => Some(C::Vertex),
+            Destination::Equivalent => Some(C::Equivalent),
+            Destination::Near => Some(C::Near),
+            Destination::OverRefraction => Some(C::OverRefraction),
+            Destination::ImageSize => Some(C::ImageSize),
+            Destination::Chart => Some(C::Chart),
+            Destination::LensCheck => Some(C::LensCheck),
+            Destination::History | Destination::About => None,
         }
     }
 }

@@ -3,7 +3,10 @@
 
 use crate::history::History;
 use crate::link::Destination;
-use crate::panels::{AboutPanel, EquivalentPanel, HistoryBanner, HistoryPanel, NearPanel, VertexPanel};
+use crate::panels::{
+    AboutPanel, ChartPanel, EquivalentPanel, HistoryBanner, HistoryPanel, ImageSizePanel, LensCheckPanel, NearPanel,
+    OverRefractionPanel, VertexPanel,
+};
 use crate::prefs::{FieldsShown, Remembered};
 use crate::sync::{carried_href, ActiveQuery, Base, Carry};
 use crate::theme::ThemeButton;
@@ -78,6 +81,10 @@ fn Page(base: String) -> impl IntoView {
         Some(Destination::Vertex) => view! { <VertexPanel/> }.into_any(),
         Some(Destination::Equivalent) => view! { <EquivalentPanel/> }.into_any(),
         Some(Destination::Near) => view! { <NearPanel/> }.into_any(),
+        Some(Destination::OverRefraction) => view! { <OverRefractionPanel/> }.into_any(),
+        Some(Destination::ImageSize) => view! { <ImageSizePanel/> }.into_any(),
+        Some(Destination::Chart) => view! { <ChartPanel/> }.into_any(),
+        Some(Destination::LensCheck) => view! { <LensCheckPanel/> }.into_any(),
         Some(Destination::History) => view! { <HistoryPanel/> }.into_any(),
         Some(Destination::About) => view! { <AboutPanel/> }.into_any(),
         None => view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }.into_any(),

@@ -49,7 +49,7 @@ impl Carry {
 /// The link of `dest` with whatever the panels currently carry.
 pub fn carried_href(dest: Destination, carry: &Query) -> String {
     let mut q = Query::default();
-    for key in dest.keys() {
+    for key in dest.keys().iter().filter(|k| dest.carries(k)) {
         if let Some(v) = carry.get(key) {
             q.set(key, v);
         }

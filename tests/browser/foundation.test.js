@@ -153,7 +153,7 @@ test('update: a rebuilt version is offered, and accepting it runs the new versio
     await srv.stop();
     srv = await startServer({ dir: dirB, port });
     await page.evaluate(() => globalThis.LENSPLANE_CHECK_UPDATE());
-    const accept = page.getByRole('button', { name: 'Reload into it' });
+    const accept = page.getByRole('button', { name: 'Reload with the new version' });
     await accept.waitFor({ state: 'visible', timeout: 30000 });
     // Until accepted, the page still runs the old version.
     assert.equal(await page.locator('meta[name="lensplane-build"]').getAttribute('content'), 'update-test-a');

@@ -32,35 +32,14 @@ fn is_hashed(path: &Path) -> bool {
         .is_some_and(|(_, h)| h.len() == 10 && h.bytes().all(|b| b.is_ascii_hexdigit()))
 }
 
-fn percent_decode(s: &str) -> String {
-    let bytes = s.as_bytes();
-    let mut out = Vec::with_capacity(bytes.len());
-    let mut i = 0;
-    while i < bytes.len() {
-        if bytes[i] == b'%' && i + 2 < bytes.len() {
-            if let Some(v) = std::str::from_utf8(&bytes[i + 1..i + 3])
-                .ok()
-                .and_then(|h| u8::from_str_radix(h, 16).ok())
-            {
-                out.push(v);
-                i += 3;
-                continue;
-            }
-        }
-        out.push(bytes[i]);
-        i += 1;
-    }
-    String::from_utf8_lossy(&out).into_owned()
-}
-
 /// Maps a request path to a file in `dir`, refusing anything that climbs out.
 fn resolve(dir: &Path, prefix: &str, url: &str) -> Option<PathBuf> {
     let path = url.split(['?', '#']).next().unwrap_or("");
     let rest = path
         .strip_prefix(prefix)
         .or_else(|| (path.to_string() + "/" == prefix).then_some(""))?;
-    let rest = percent_decode(rest);
-    let rel = Path::new(&rest);
+    let rest = percent_encoding::percent_decode_str(rest).decode_utf8_lossy();
+    let rel = Path::new(rest.as_ref());
     if rel.components().any(|c| !matches!(c, Component::Normal(_))) {
         return None;
     }
@@ -144,8 +123,14 @@ mod tests {
     }
 
     #[test]
-    fn percent_escapes_decode() {
-        assert_eq!(percent_decode("a%20b%2F"), "a b/");
-        assert_eq!(percent_decode("100%"), "100%");
+    fn percent_escapes_decode_before_the_path_is_checked() {
+        let dir = std::env::temp_dir().join(format!("lensplane-serve-{}", std::process::id()));
+        std::fs::create_dir_all(&dir).unwrap();
+        std::fs::write(dir.join("a b.txt"), "x").unwrap();
+        assert_eq!(resolve(&dir, "/", "/a%20b.txt").unwrap(), dir.join("a b.txt"));
+        // An escaped climb out of the folder is refused like a plain one.
+        assert!(resolve(&dir, "/", "/%2E%2E/%2E%2E/etc/passwd").is_none());
+        assert!(resolve(&dir, "/", "/..%2F..%2Fetc%2Fpasswd").is_none());
+        let _ = std::fs::remove_dir_all(&dir);
     }
 }

@@ -3,6 +3,7 @@
 
 use crate::error::{Error, ErrorKind, Field};
 use crate::format::fmt_number;
+use crate::limits;
 use crate::{compensate, Rx, VertexDistance};
 
 /// The spherical equivalent of `rx` once moved from `from` to `to`.
@@ -47,20 +48,23 @@ impl Default for SubstituteSettings {
 }
 
 impl SubstituteSettings {
-    /// Check: thresholds finite and non-negative (cylinders up to 10 D,
-    /// ratio up to 1).
+    /// Check: the cylinder limits within [`limits::SUBSTITUTE_CYLINDER`],
+    /// the ratio within [`limits::SUBSTITUTE_RATIO`].
     ///
     /// ```
     /// assert!(lensplane_core::SubstituteSettings::default().validate().is_ok());
     /// ```
     pub fn validate(&self) -> Result<(), Error> {
-        let ok = |x: f64, max: f64| x.is_finite() && (0.0..=max).contains(&x);
-        if ok(self.max_cylinder, 10.0) && ok(self.max_cylinder_oblique_or_against, 10.0) && ok(self.max_ratio, 1.0) {
+        let (cyl, ratio) = (limits::SUBSTITUTE_CYLINDER, limits::SUBSTITUTE_RATIO);
+        if cyl.contains(self.max_cylinder)
+            && cyl.contains(self.max_cylinder_oblique_or_against)
+            && ratio.contains(self.max_ratio)
+        {
             Ok(())
         } else {
             Err(Error::new(
                 ErrorKind::BadSetting {
-                    what: "substitute thresholds must be 0–10 D and a ratio of 0–1",
+                    what: format!("substitute thresholds must be within {cyl} and a ratio within {ratio}"),
                 },
                 Field::Setting,
                 None,

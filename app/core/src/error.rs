@@ -160,7 +160,7 @@ pub(crate) enum ErrorKind {
     /// The far point lies at (or too near) the new lens plane.
     Singular { power: f64 },
     /// A setting that cannot work.
-    BadSetting { what: &'static str },
+    BadSetting { what: String },
     /// Degrees with a decimal point where whole degrees are needed.
     NotWholeDegrees { typed: String },
     /// A sign typed in the rotation amount (the direction is chosen apart).

@@ -179,6 +179,15 @@ pub const CHART_ROWS: Limit = Limit {
 /// the chart lists spectacle powers as they are ordered.
 pub const CHART_QUARTER: f64 = 0.25;
 
+/// The steps of a lens ladder (a setting).
+pub const LADDER_STEP: Limit = Limit::span(0.01, 1.0, Unit::Dioptres);
+/// How far a ladder keeps its fine steps (a setting): at most the sphere limit.
+pub const LADDER_FINE: Limit = Limit::span(0.0, SPHERE.max, Unit::Dioptres);
+/// A spherical-substitute cylinder limit (a setting): at most the cylinder limit.
+pub const SUBSTITUTE_CYLINDER: Limit = Limit::span(0.0, CYLINDER.max, Unit::Dioptres);
+/// A spherical-substitute cylinder : sphere limit (a setting), as a fraction.
+pub const SUBSTITUTE_RATIO: Limit = Limit::span(0.0, 1.0, Unit::Number);
+
 /// A meridian beyond this draws a warning (check the entry).
 pub const SPHERE_WARN: Limit = Limit::symmetric(20.0, Unit::Dioptres);
 /// A cylinder above this draws a warning (check the entry).

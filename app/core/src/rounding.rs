@@ -2,6 +2,7 @@
 //! and availability ladders (finer steps near zero, coarser beyond).
 
 use crate::error::{Error, ErrorKind, Field};
+use crate::limits::{LADDER_FINE, LADDER_STEP};
 use crate::{compensate_meridians, Meridian, PowerCross, PowerVector, Rx, ToricSettings, VertexDistance};
 
 /// How to round a value that lies exactly halfway between two steps.
@@ -108,20 +109,16 @@ impl Ladder {
     /// use lensplane_core::Ladder;
     /// assert!(Ladder::CONTACT_LENS.validate().is_ok());
     /// let bad = Ladder { fine_step: 0.0, ..Ladder::CONTACT_LENS };
-    /// assert_eq!(bad.validate().unwrap_err().to_string(), "setting: ladder steps must be between 0.01 and 1.00 D");
+    /// assert_eq!(bad.validate().unwrap_err().to_string(), "setting: ladder steps must be within 0.01–1 D");
     /// ```
     pub fn validate(&self) -> Result<(), Error> {
-        let step_ok = |s: f64| s.is_finite() && (0.01..=1.0).contains(&s);
-        if !step_ok(self.fine_step) || !step_ok(self.coarse_step) {
-            return Err(bad_setting("ladder steps must be between 0.01 and 1.00 D"));
+        if !LADDER_STEP.contains(self.fine_step) || !LADDER_STEP.contains(self.coarse_step) {
+            return Err(bad_setting(format!("ladder steps must be within {LADDER_STEP}")));
         }
-        if !self.fine_limit.is_finite()
-            || !(0.0..=30.0).contains(&self.fine_limit)
-            || !is_on_step(self.fine_limit, self.fine_step)
-        {
-            return Err(bad_setting(
-                "the fine-step limit must be a whole number of fine steps, 0–30 D",
-            ));
+        if !LADDER_FINE.contains(self.fine_limit) || !is_on_step(self.fine_limit, self.fine_step) {
+            return Err(bad_setting(format!(
+                "the fine-step limit must be a whole number of fine steps within {LADDER_FINE}"
+            )));
         }
         Ok(())
     }
@@ -178,7 +175,7 @@ impl Ladder {
     }
 }
 
-fn bad_setting(what: &'static str) -> Error {
+fn bad_setting(what: String) -> Error {
     Error::new(ErrorKind::BadSetting { what }, Field::Setting, None)
 }
 
@@ -236,7 +233,7 @@ impl OrderSettings {
         self.contact_lens.validate()?;
         if let Some(s) = self.stock {
             if !(s.min.is_finite() && s.max.is_finite() && s.min < s.max) {
-                return Err(bad_setting("the stock range needs min below max"));
+                return Err(bad_setting("the stock range needs min below max".into()));
             }
         }
         self.toric.validate()

@@ -4,9 +4,10 @@
 
 use crate::equivalent::SubstituteSettings;
 use crate::error::{Error, ErrorKind, Field};
+use crate::limits::SUBSTITUTE_CYLINDER;
 use crate::parse::Parsed;
 
-fn bad(what: &'static str) -> Error {
+fn bad(what: String) -> Error {
     Error::new(ErrorKind::BadSetting { what }, Field::Setting, None)
 }
 
@@ -24,16 +25,16 @@ fn number(text: &str) -> Option<f64> {
 /// use lensplane_core::parse_cylinder_limit;
 /// assert_eq!(parse_cylinder_limit("0,75 D")?.value, 0.75);
 /// assert_eq!(parse_cylinder_limit("-1").unwrap_err().to_string(),
-///            "setting: a cylinder limit is a size in dioptres from 0 to 10");
+///            "setting: a cylinder limit must be within 0–10 D");
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
 pub fn parse_cylinder_limit(text: &str) -> Result<Parsed<f64>, Error> {
     match number(text) {
-        Some(x) if (0.0..=10.0).contains(&x) => Ok(Parsed {
+        Some(x) if SUBSTITUTE_CYLINDER.contains(x) => Ok(Parsed {
             value: x,
             notices: vec![],
         }),
-        _ => Err(bad("a cylinder limit is a size in dioptres from 0 to 10")),
+        _ => Err(bad(format!("a cylinder limit must be within {SUBSTITUTE_CYLINDER}"))),
     }
 }
 
@@ -49,7 +50,7 @@ pub fn parse_cylinder_limit(text: &str) -> Result<Parsed<f64>, Error> {
 /// # Ok::<(), lensplane_core::Error>(())
 /// ```
 pub fn parse_ratio_limit(text: &str) -> Result<Parsed<f64>, Error> {
-    let err = || bad("write the cylinder : sphere limit as 1:4");
+    let err = || bad("write the cylinder : sphere limit as 1:4".into());
     let t = text.trim();
     let ratio = match t.split_once([':', '/']) {
         Some((a, b)) => {

@@ -4,6 +4,8 @@
 //! obliquely crossed cylinder it is).
 
 use crate::error::{Error, ErrorKind, Field};
+use crate::format::fmt_power;
+use crate::limits;
 use crate::rounding::{Ladder, TieRule};
 use crate::{PowerVector, Rx};
 
@@ -37,12 +39,21 @@ impl ToricSettings {
     /// assert_eq!(bad.validate().unwrap_err().to_string(), "setting: the toric axis step must divide 180");
     /// ```
     pub fn validate(&self) -> Result<(), Error> {
-        let bad = |what| Err(Error::new(ErrorKind::BadSetting { what }, Field::Setting, None));
-        if self.cylinders.is_empty() || self.cylinders.iter().any(|c| !c.is_finite() || *c >= 0.0 || *c < -10.0) {
-            return bad("toric cylinders must be negative, down to -10.00 D");
+        let bad = |what: String| Err(Error::new(ErrorKind::BadSetting { what }, Field::Setting, None));
+        let deepest = -limits::CYLINDER.max;
+        if self.cylinders.is_empty()
+            || self
+                .cylinders
+                .iter()
+                .any(|c| !c.is_finite() || *c >= 0.0 || *c < deepest)
+        {
+            return bad(format!(
+                "toric cylinders must be negative, down to {} D",
+                fmt_power(deepest)
+            ));
         }
         if self.axis_step == 0 || self.axis_step > 90 || 180 % self.axis_step != 0 {
-            return bad("the toric axis step must divide 180");
+            return bad("the toric axis step must divide 180".into());
         }
         Ok(())
     }

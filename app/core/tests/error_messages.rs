@@ -307,7 +307,7 @@ fn settings_errors() {
     };
     assert_eq!(
         err(bad.validate()).to_string(),
-        "setting: the fine-step limit must be a whole number of fine steps, 0–30 D"
+        "setting: the fine-step limit must be a whole number of fine steps within 0–30 D"
     );
     let bad = SubstituteSettings {
         max_ratio: 2.0,
@@ -315,7 +315,7 @@ fn settings_errors() {
     };
     assert_eq!(
         err(bad.validate()).to_string(),
-        "setting: substitute thresholds must be 0–10 D and a ratio of 0–1"
+        "setting: substitute thresholds must be within 0–10 D and a ratio within 0–1"
     );
     assert_eq!(err(bad.validate()).field(), Field::Setting);
 }

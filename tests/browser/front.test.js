@@ -84,6 +84,35 @@ test('touch targets are at least 44 × 44 px on a phone', async () => {
   await context.close();
 });
 
+test('placeholders and choices in selects are not cut off on phones from 320 to 390 px', async () => {
+  for (const width of [320, 390]) {
+    const { context, page: p } = await page({ viewport: { width, height: 800 } });
+    for (const [name, path] of DESTINATIONS) {
+      await p.goto(server.url(path));
+      await waitForApp(p);
+      await p.evaluate(() => document.querySelectorAll('details').forEach((d) => { d.open = true; }));
+      const cut = await p.evaluate(() => {
+        const ctx = document.createElement('canvas').getContext('2d');
+        return [...document.querySelectorAll('input[placeholder], select')]
+          .filter((el) => el.checkVisibility() && !el.classList.contains('visually-hidden'))
+          .map((el) => {
+            const cs = getComputedStyle(el);
+            ctx.font = `${cs.fontWeight} ${cs.fontSize} ${cs.fontFamily}`;
+            const texts = el.tagName === 'SELECT' ? [...el.options].map((o) => o.text) : [el.placeholder];
+            // A select's arrow takes about 1.5em of its box.
+            const arrow = el.tagName === 'SELECT' ? 1.5 * parseFloat(cs.fontSize) : 0;
+            const room = el.clientWidth - parseFloat(cs.paddingLeft) - parseFloat(cs.paddingRight) - arrow;
+            const widest = Math.max(...texts.map((t) => ctx.measureText(t).width));
+            return { id: el.id, text: texts.join(' | '), widest: Math.round(widest), room: Math.round(room) };
+          })
+          .filter((r) => r.widest > r.room);
+      });
+      assert.deepEqual(cut, [], `${name} at ${width}px: ${JSON.stringify(cut)}`);
+    }
+    await context.close();
+  }
+});
+
 test('text at 200 % loses nothing: no sideways scrolling and the result stays readable', async () => {
   const { context, page: p } = await page({ viewport: { width: 390, height: 844 } });
   for (const [name, path] of DESTINATIONS) {

@@ -315,7 +315,7 @@ pub fn HistoryPanel() -> impl IntoView {
         <div class="history-tools">
             <div class="field">
                 <label for="history-filter">"Filter"</label>
-                <input id="history-filter" type="search" autocomplete="off" placeholder="label or power, e.g. -2.00 x180"
+                <input id="history-filter" type="search" autocomplete="off" placeholder="a label or a power"
                     prop:value=move || text.get()
                     on:input=move |ev| { text.set(event_target_value(&ev)); shown.set(PAGE); }/>
             </div>

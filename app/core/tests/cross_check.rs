@@ -2,7 +2,7 @@
 //!
 //! The core works in vergences (F / (1 − δF), the vergence chain). Here the
 //! same questions are answered by another route: paraxial rays traced as
-//! (height, angle) vectors through 2×002 ray-transfer (ABCD) matrices, built
+//! (height, angle) vectors through 2×2 ray-transfer (ABCD) matrices, built
 //! with the general-purpose linear-algebra library nalgebra (no usable
 //! paraxial-optics crate was available). Thin lens R(F) = [[1, 0], [−F, 1]],
 //! free space T(t) = [[1, t], [0, 1]] (reduced, in air); the vergence of a

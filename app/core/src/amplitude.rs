@@ -29,7 +29,7 @@ pub struct Amplitude {
 /// ```
 pub fn hofstetter(age: Age) -> Amplitude {
     let y = f64::from(age.years());
-    let clamp = |x: f64| x.max(0.0) + 0.0;
+    let clamp = |x: f64| x.max(0.0);
     Amplitude {
         minimum: clamp(15.0 - 0.25 * y),
         average: clamp(18.5 - 0.30 * y),
@@ -73,8 +73,8 @@ pub struct TentativeAdd {
 /// assert_eq!(t.third_reserve_rounded, 0.75);
 /// ```
 pub fn tentative_add(demand: f64, amplitude: f64, tie: TieRule) -> TentativeAdd {
-    let half = (demand - amplitude / 2.0).max(0.0) + 0.0;
-    let third = (demand - amplitude * 2.0 / 3.0).max(0.0) + 0.0;
+    let half = (demand - amplitude / 2.0).max(0.0);
+    let third = (demand - amplitude * 2.0 / 3.0).max(0.0);
     TentativeAdd {
         half_reserve: half,
         third_reserve: third,

@@ -537,3 +537,13 @@ proptest! {
         prop_assert_eq!(parse_chart(&q).unwrap().value, s);
     }
 }
+
+// The settings read back as given (the chart's title and CSV are written from them).
+#[test]
+fn settings_read_back_as_given() {
+    let s = ChartSettings::new(mm(14.0), mm(10.0), 2.5, 12.0, 0.5, Some(LadderKind::Spectacle)).unwrap();
+    assert_eq!((s.from().mm(), s.to().mm()), (14.0, 10.0));
+    assert_eq!((s.min(), s.max(), s.step()), (2.5, 12.0, 0.5));
+    assert_eq!(s.ladder(), LadderKind::Spectacle);
+    assert_eq!(s.rows(), 2 * 20);
+}

@@ -25,8 +25,11 @@ if ! printf '%s\n' "$@" | grep -qE '^(-f|--file)$'; then
   for f in "${FORMULAS[@]}"; do args+=(--file "app/core/src/$f.rs"); done
 fi
 # Unit and integration tests (doc tests check examples, not thresholds, and
-# would triple the time per mutant); nextest runs them in parallel.
+# would triple the time per mutant).
 # Fewer property-test cases per mutant keeps a run to minutes per file.
 export PROPTEST_CASES="${PROPTEST_CASES:-64}"
-exec cargo mutants --package lensplane-core --test-tool nextest --profile mutants --jobs "${MUTANTS_JOBS:-2}" \
+# nextest when installed (`cargo install cargo-nextest`), cargo's own runner otherwise.
+tool=cargo
+command -v cargo-nextest >/dev/null 2>&1 && tool=nextest
+exec cargo mutants --package lensplane-core --test-tool "$tool" --profile mutants --jobs "${MUTANTS_JOBS:-2}" \
   "${args[@]}" "$@"

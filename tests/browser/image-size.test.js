@@ -156,7 +156,7 @@ test('link round trip: the lens form opens from the link, adds the shape factor,
   const r = region(page, 'Right');
   // Shape factor 1 / (1 − 0.002 / 1.5 × 6) = 1.0081 [textbook formula; derived]: spectacles
   // 1.1364 × 1.0081 = +14.6 %; contact lens +2.7 %; change 1.0273 / 1.1455 − 1 = −10.3 %.
-  await expectText(r.locator('.headline'), '-10.3 %', '+14.6 %', 'Shape factor of the lens form given included');
+  await expectText(r.locator('.headline'), '-10.3 %', '+14.6 %', 'Includes the shape factor of the lens form given');
   const form = page.getByRole('group', { name: 'Right eye (R)' }).locator('details.lens-form');
   assert.equal(await form.evaluate((d) => d.open), true, 'a lens form from the link is shown');
   assert.equal(await page.getByLabel('Right front surface', { exact: true }).inputValue(), '+6.00');
@@ -178,7 +178,7 @@ test('link round trip: the lens form opens from the link, adds the shape factor,
   await page.goto(url.href);
   await waitForApp(page);
   assert.equal(await page.getByLabel('Right centre thickness', { exact: true }).inputValue(), '2,2');
-  await expectText(region(page, 'Right').locator('.headline'), 'Shape factor of the lens form given included');
+  await expectText(region(page, 'Right').locator('.headline'), 'Includes the shape factor of the lens form given');
   await context.close();
 });
 
@@ -278,7 +278,7 @@ test('saved to history and reopened from it, the same link and figures', async (
   await page.waitForURL(/\/image-size\?/);
   const url = new URL(page.url());
   for (const [k, v] of [['r', '+8.00'], ['l', '-5.00'], ['from', '14'], ['rf', '6'], ['rt', '4.5'], ['rn', '1.6']]) assert.equal(url.searchParams.get(k), v, k);
-  await region(page, 'Right').locator('.headline').getByText('Shape factor of the lens form given included').waitFor();
+  await region(page, 'Right').locator('.headline').getByText('Includes the shape factor of the lens form given').waitFor();
   assert.equal(await region(page, 'Right').locator('.headline').innerText(), headline);
   await context.close();
 });

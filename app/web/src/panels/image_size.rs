@@ -92,7 +92,7 @@ fn per_meridian(r: &ImageSizeReport, of: impl Fn(&MeridianSize) -> f64) -> Strin
 fn shape_words(r: &ImageSizeReport) -> String {
     match r.shape_note {
         Some(note) => capitalised(note),
-        None => "Shape factor of the lens form given included".into(),
+        None => "Includes the shape factor of the lens form given".into(),
     }
 }
 
@@ -313,7 +313,7 @@ fn Comparison(comparison: Memo<Option<ImageSizeComparison>>) -> impl IntoView {
             <h2 id="image-size-compare-heading">"Between the eyes"</h2>
             <Show when=move || comparison.with(Option::is_some)
                 fallback=|| view! { <p class="empty-note">"Enter a complete prescription for both eyes to compare their image sizes."</p> }>
-                <table class="compare-table">
+                <table class="figures compare-table">
                     <caption>"Difference in image size, per meridian"</caption>
                     <thead>
                         <tr><th scope="col">"Meridian"</th><th scope="col">"Spectacles"</th><th scope="col">"Contact lenses"</th></tr>
@@ -523,7 +523,7 @@ mod tests {
         let c = image_size_card(&report(Rx::new(-1.0, -4.0, 180).unwrap(), Some(form)));
         assert!(c.headline.value.starts_with("180: "), "{}", c.headline.value);
         assert!(c.headline.value.contains(", 090: "), "{}", c.headline.value);
-        assert_eq!(c.headline.note, "Shape factor of the lens form given included");
+        assert_eq!(c.headline.note, "Includes the shape factor of the lens form given");
         // Shape factor [derived]: +6.00 front, 2 mm, n 1.5 → 1 / (1 − 0.008) = 1.0081 → +0.8 %.
         let shape = c
             .details

@@ -21,6 +21,7 @@ const DESTINATIONS = [
   ['vertex', `vertex?${RX}`],
   ['equivalent', `equivalent?${RX}`],
   ['near', `near?${RX}&add=2.50&age=50`],
+  ['image-size', `image-size?${RX}&rf=6&rt=2&rn=1.5`],
   ['history', 'history'],
   ['about', 'about'],
 ];

@@ -346,7 +346,7 @@ pub use parse::{
     parse_add, parse_age, parse_axis_field, parse_cylinder_field, parse_reading_distance, parse_reading_inches,
     parse_rx, parse_sphere_field, parse_vertex_mm, Notice, NoticeKind, Parsed,
 };
-pub use percent::{fmt_percent, fmt_percent_size};
+pub use percent::{fmt_factor, fmt_percent, fmt_percent_size};
 pub use power_matrix::{PowerMatrix, PrincipalPowers};
 pub use recommend::{recommend, Candidate, Leftover, LensKind, Recommendation};
 pub use report_equivalent::{equivalent_report, EquivalentInput, EquivalentReport};

@@ -51,3 +51,19 @@ pub fn fmt_percent_size(fraction: f64) -> String {
     }
     format!("{} %", digits(tenths_of_percent(fraction.abs())))
 }
+
+/// A magnification factor (a ratio such as a power or shape factor) as the
+/// percentage it changes a size by, one decimal with its sign, as
+/// [`fmt_percent`] prints: `1.13636` is `+13.6 %`, `1.0` is `0.0 %`.
+///
+/// ```
+/// use lensplane_core::fmt_factor;
+/// // +8.00 at 12 mm, h = 15 mm [derived]: power factor 1 / 0.88 = 1.1364.
+/// assert_eq!(fmt_factor(1.0 / 0.88), "+13.6 %");
+/// assert_eq!(fmt_factor(1.0), "0.0 %");
+/// assert_eq!(fmt_factor(0.9346), "-6.5 %");
+/// assert_eq!(fmt_factor(f64::INFINITY), "\u{2014}");
+/// ```
+pub fn fmt_factor(ratio: f64) -> String {
+    fmt_percent(ratio - 1.0)
+}

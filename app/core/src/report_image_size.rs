@@ -6,7 +6,9 @@ use crate::limits::ANISEIKONIA_TOLERANCE;
 use crate::magnification::{meridian_size, MeridianSize, ANTERIOR_FOCAL_POINT_MM};
 use crate::percent::tenths_of_percent;
 use crate::warnings::{rx_warnings, vertex_warnings, Warning, WarningKind};
-use crate::{fmt_dioptres, fmt_length, fmt_percent, fmt_percent_size, Eye, LensForm, PowerMatrix, Rx, VertexDistance};
+use crate::{
+    fmt_dioptres, fmt_length, fmt_number, fmt_percent, fmt_percent_size, Eye, LensForm, PowerMatrix, Rx, VertexDistance,
+};
 
 /// Rule of thumb for spectacles [common practice]: about 1.5 % of image
 /// size difference per dioptre of anisometropia.
@@ -174,18 +176,22 @@ impl Tolerance {
         }
     }
 
-    /// Plain words, with the thresholds.
+    /// Plain words, with the thresholds written as every percentage on the
+    /// page is (one decimal, [`fmt_percent_size`]).
     ///
     /// ```
     /// use lensplane_core::Tolerance;
-    /// assert_eq!(Tolerance::Borderline.words(), "within the about 3–5 % where a difference may not be tolerated");
+    /// assert_eq!(Tolerance::Usual.words(), "below about 3.0 %, usually tolerated");
+    /// assert_eq!(Tolerance::Borderline.words(), "between about 3.0 % and 5.0 %, where a difference may not be tolerated");
+    /// assert_eq!(Tolerance::Poor.words(), "above about 5.0 %, often not tolerated");
     /// ```
     pub fn words(self) -> String {
         let l = ANISEIKONIA_TOLERANCE;
+        let (min, max) = (fmt_percent_size(l.min / 100.0), fmt_percent_size(l.max / 100.0));
         match self {
-            Tolerance::Usual => format!("below about {} %, usually tolerated", fmt_length(l.min)),
-            Tolerance::Borderline => format!("within the about {l} where a difference may not be tolerated"),
-            Tolerance::Poor => format!("above about {} %, often not tolerated", fmt_length(l.max)),
+            Tolerance::Usual => format!("below about {min}, usually tolerated"),
+            Tolerance::Borderline => format!("between about {min} and {max}, where a difference may not be tolerated"),
+            Tolerance::Poor => format!("above about {max}, often not tolerated"),
         }
     }
 }
@@ -237,6 +243,18 @@ impl Outline {
     /// ```
     pub fn svg_rotate(&self) -> String {
         format!("rotate(-{})", self.axis % 180)
+    }
+
+    /// The SVG `rx` and `ry` of this outline drawn at `radius` drawing units
+    /// for a semi-axis of 1.0 (the largest of a comparison), two decimals,
+    /// so the view draws to scale without computing.
+    ///
+    /// ```
+    /// let o = lensplane_core::Outline { along: 1.0, across: 0.9, axis: 30 };
+    /// assert_eq!(o.svg_radii(40.0), ("40.00".to_string(), "36.00".to_string()));
+    /// ```
+    pub fn svg_radii(&self, radius: f64) -> (String, String) {
+        (fmt_number(self.along * radius), fmt_number(self.across * radius))
     }
 }
 

@@ -103,8 +103,8 @@ fn right_minus_1_left_minus_5_at_12_mm() {
     assert_eq!(c.contact_lenses, Tolerance::Usual);
     assert_eq!(
         c.reading,
-        "In spectacles the two images differ by about 5.9 %, the right larger: above about 5 %, often not tolerated. \
-         In contact lenses by about 1.1 %, the right larger: below about 3 %, usually tolerated. \
+        "In spectacles the two images differ by about 5.9 %, the right larger: above about 5.0 %, often not tolerated. \
+         In contact lenses by about 1.1 %, the right larger: below about 3.0 %, usually tolerated. \
          Rule of thumb (common practice): about 1.5 % per dioptre of anisometropia in spectacles (4.00 D here, about 6.0 %), a fifth of that in contact lenses."
     );
     assert!(c.knapp.starts_with(
@@ -152,7 +152,7 @@ fn tolerance_thresholds_as_shown() {
     assert_eq!(limits::ANISEIKONIA_TOLERANCE.to_string(), "3–5 %");
     assert_eq!(
         Tolerance::Borderline.words(),
-        "within the about 3–5 % where a difference may not be tolerated"
+        "between about 3.0 % and 5.0 %, where a difference may not be tolerated"
     );
 }
 
@@ -382,4 +382,22 @@ proptest! {
         prop_assert!(shape_factor(f, t + 0.001, n).unwrap() >= s);
         prop_assert_eq!(shape_factor(f, 0.0, n).unwrap(), 1.0);
     }
+}
+
+#[test]
+fn factors_print_as_percentages_and_outlines_as_svg_radii() {
+    // [derived] +8.00 at 12 mm: power factor 1 / 0.88 = 1.1364 → +13.6 %; no shape factor → 0.0 %.
+    let r = eye(8.0, 0.0, 180);
+    assert_eq!(fmt_factor(r.meridians[0].power_factor), "+13.6 %");
+    assert_eq!(fmt_factor(1.0), "0.0 %");
+    // [derived] R -1.00 / L -5.00: the left spectacle outline is 0.930233 / 0.997044 = 0.9330 of the largest.
+    let c = compare_image_sizes(&eye(-1.0, 0.0, 180), &eye(-5.0, 0.0, 180));
+    assert_eq!(
+        c.contact_lens_outlines.right.svg_radii(40.0),
+        ("40.00".into(), "40.00".into())
+    );
+    assert_eq!(
+        c.spectacle_outlines.left.svg_radii(40.0),
+        ("37.32".into(), "37.32".into())
+    );
 }

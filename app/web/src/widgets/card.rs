@@ -85,7 +85,15 @@ pub struct Card {
 }
 
 #[component]
-pub fn EyeCard(eye: Eye, shown: Memo<Shown<Card>>, details: Remembered) -> impl IntoView {
+pub fn EyeCard(
+    eye: Eye,
+    shown: Memo<Shown<Card>>,
+    details: Remembered,
+    /// A small figure shown under the one-line reason (the image-size
+    /// outlines); none on most panels.
+    #[prop(optional, into)]
+    figure: Option<ViewFn>,
+) -> impl IntoView {
     let (word, letter) = eye_words(eye);
     let body = move || {
         let card = shown.get().result()?.clone();
@@ -129,6 +137,7 @@ pub fn EyeCard(eye: Eye, shown: Memo<Shown<Card>>, details: Remembered) -> impl 
         let cross = card.cross.map(|(before, after)| {
             view! { <PowerCrossDiagram before=before after=after label=format!("{word} eye power cross: before and after")/> }
         });
+        let figure = figure.clone().map(|f| f.run());
         Some(view! {
             <div class="headline">
                 <p class="result-main">
@@ -142,6 +151,7 @@ pub fn EyeCard(eye: Eye, shown: Memo<Shown<Card>>, details: Remembered) -> impl 
                 <p class="result-note">{h.note}</p>
             </div>
             <p class="reason">{card.why}</p>
+            {figure}
             {alternatives}
             {warnings}
             <details class="card-details" prop:open=move || details.is_open() on:toggle=on_toggle(details)>

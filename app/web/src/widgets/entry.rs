@@ -190,6 +190,10 @@ pub fn EyeEntryForm(
     result: Memo<Shown<Card>>,
     /// Prefix for element ids (the panel's name).
     id_prefix: &'static str,
+    /// More inputs of this eye, shown under its prescription (the image
+    /// size's lens form); none on most panels.
+    #[prop(optional)]
+    children: Option<Children>,
 ) -> impl IntoView {
     let (word, letter) = eye_words(entry.eye);
     let lower = word.to_ascii_lowercase();
@@ -241,6 +245,7 @@ pub fn EyeEntryForm(
                 {format!("Clear {lower} eye")}
             </button>
             </div>
+            {children.map(|c| c())}
         </fieldset>
     }
 }

@@ -9,6 +9,7 @@ import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { createRequire } from 'node:module';
 import { startServer, launch, waitForApp, waitForWorkerControl, watchErrors } from './harness.js';
+import { storedLayout, writeItems } from './history-fixtures.js';
 
 const require = createRequire(import.meta.url);
 const AXE = require.resolve('axe-core/axe.min.js');
@@ -404,6 +405,36 @@ test('"Check lens" on history entries that hold a spectacle order: vertex (the o
   assert.deepEqual([...q.keys()], ['r', 'add']);
   assert.equal(await page.getByLabel('Right lens ordered', { exact: true }).inputValue(), '+1.00 -0.50 ×090');
   assert.equal(await page.getByLabel('Add ordered', { exact: true }).inputValue(), '+2.00');
+  await context.close();
+});
+
+test('"Check lens" on saved spherical-equivalent and over-refraction orders only when they are for spectacles', async () => {
+  // Invented entries in the stored layout: they test which entries link, not clinical figures.
+  const t = Date.UTC(2025, 0, 15, 9, 0);
+  const eye = (o) => [{ s: 'R', i: '-2.00 -0.50 ×090', r: o, o }];
+  const items = storedLayout([
+    { id: 'se-spec', t, p: 'equivalent', q: `r=${enc('-2.00 -0.50 x90')}&from=12&to=12`, e: eye('-2.25 DS'), l: 'SE spectacles' },
+    { id: 'se-cl', t: t + 1, p: 'equivalent', q: `r=${enc('-2.00 -0.50 x90')}`, e: eye('-2.25 DS'), l: 'SE contact lens' },
+    { id: 'or-spec', t: t + 2, p: 'over-refraction', q: `r=-2.00&ror=-0.50&worn=12`, e: eye('-2.50 DS'), l: 'Over spectacles' },
+    { id: 'or-cl', t: t + 3, p: 'over-refraction', q: `r=-2.00&ror=-0.50&worn=0`, e: eye('-2.50 DS'), l: 'Over contact lens' },
+    { id: 'or-to-spec', t: t + 4, p: 'over-refraction', q: `r=-2.00&ror=-0.50&worn=0&to=13`, e: eye('-2.50 DS'), l: 'Over to spectacles' },
+  ]);
+  const context = await browser.newContext();
+  const page = await context.newPage();
+  await page.goto(server.url('icons/icon.svg'));
+  await page.evaluate(writeItems, items);
+  await page.goto(server.url('history'));
+  await page.getByRole('heading', { level: 1, name: 'History' }).waitFor();
+  const entry = (label) => page.locator('.history-entry').filter({ hasText: label });
+  await entry('SE spectacles').waitFor();
+  const links = async (label) => entry(label).getByRole('link', { name: 'Check lens' }).count();
+  assert.deepEqual(
+    [await links('SE spectacles'), await links('SE contact lens'), await links('Over spectacles'), await links('Over contact lens'), await links('Over to spectacles')],
+    [1, 0, 1, 0, 1],
+  );
+  await entry('Over to spectacles').getByRole('link', { name: 'Check lens' }).click();
+  await page.waitForURL(/\/lens-check\?r=-2\.50%20DS$/);
+  assert.equal(await page.getByLabel('Right lens ordered', { exact: true }).inputValue(), '-2.50 DS');
   await context.close();
 });
 

@@ -37,7 +37,9 @@ impl Carry {
             let mut carried = previous.cloned().unwrap_or_default();
             // A panel that was replaced is gone: its memo reads as nothing.
             if let Some((dest, q)) = active.0.get().and_then(|(d, m)| Some((d, m.try_get()?))) {
-                for key in dest.keys() {
+                // Only what the panel would also take: the lens check's `r`
+                // (a lens ordered) is not a refraction for the next panel.
+                for key in dest.keys().iter().filter(|k| dest.carries(k)) {
                     carried.set(key, q.get(key).unwrap_or(""));
                 }
             }

@@ -109,6 +109,11 @@ fn entry_item(e: &Entry, base: &str) -> web_sys::Element {
         &format!("{base}{}", href(e.destination, &Query::parse(&e.query))),
     );
     add(&actions, &open);
+    if let Some(check) = super::check_link::entry_check_href(e) {
+        let link = el("a", "button", "Check lens");
+        let _ = link.set_attribute("href", &format!("{base}{check}"));
+        add(&actions, &link);
+    }
     let delete = el("button", "button quiet", "Delete");
     let _ = delete.set_attribute("type", "button");
     let _ = delete.set_attribute("data-id", &e.id);

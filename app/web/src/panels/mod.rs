@@ -2,6 +2,8 @@
 
 mod about;
 mod chart;
+mod check_card;
+pub(crate) mod check_link;
 mod common;
 mod equivalent;
 mod history;

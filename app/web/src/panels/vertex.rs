@@ -1,10 +1,11 @@
 //! The vertex destination: a full prescription for each eye moved to the
 //! cornea (contact lens) or to another vertex distance.
 
+use super::check_link::check_href;
 use super::common::{summary, EyeEntries, EyeResults, Eyes};
 use crate::link::{Destination, Query};
 use crate::prefs::Remembered;
-use crate::sync::{initial_query, use_link_sync};
+use crate::sync::{initial_query, use_link_sync, Base};
 use crate::widgets::{result_warnings, Alternative, Card, Cautions, Headline, PlaneInputs, Planes, Row};
 use lensplane_core::{
     fmt_axis, fmt_dioptres, fmt_length, fmt_power, vertex_report, LadderKind, OrderSettings, PowerCross,
@@ -175,6 +176,24 @@ pub fn VertexPanel() -> impl IntoView {
         })
     });
 
+    // A spectacle order can be checked when it comes back: the orderable
+    // lens per eye opens the lens check as the lens ordered.
+    let base = use_context::<Base>().map(|b| b.0).unwrap_or_default();
+    let check = Memo::new(move |_| {
+        let order = |r: &Option<Result<VertexReport, lensplane_core::Error>>| match r {
+            Some(Ok(r)) if !r.to.is_cornea() => Some(r.recommendation.order.lens.to_minus_cyl().to_string()),
+            _ => None,
+        };
+        check_href(eyes.right.report.with(order), eyes.left.report.with(order), None)
+    });
+    let check_link = move || {
+        check.get().map(|h| {
+            view! {
+                <p class="check-link"><a class="button" href=format!("{base}{h}")>"Check the received lens"</a></p>
+            }
+        })
+    };
+
     view! {
         <h1>{Destination::Vertex.title()}</h1>
         <p class="lede">"A refraction moved to the cornea or another frame, each principal meridian on its own."</p>
@@ -191,6 +210,7 @@ pub fn VertexPanel() -> impl IntoView {
                         on:click=move |_| plus.set(true)>"Plus cylinder"</button>
                 </div>
                 <EyeResults eyes=eyes id_prefix="vertex" details=details text=text request=request/>
+                {check_link}
             </div>
         </div>
         <Cautions calculation=lensplane_core::Calculation::Vertex/>

@@ -194,9 +194,30 @@ pub fn EyeEntryForm(
     /// size's lens form); none on most panels.
     #[prop(optional)]
     children: Option<Children>,
+    /// What this entry holds when a panel has two per eye ("lens ordered",
+    /// "focimeter reading"): named in the legend, the labels and the clear
+    /// button. Without it the entry is the eye's prescription.
+    #[prop(optional)]
+    subject: Option<&'static str>,
 ) -> impl IntoView {
     let (word, letter) = eye_words(entry.eye);
     let lower = word.to_ascii_lowercase();
+    let (legend, line_label, clear) = match subject {
+        Some(s) => (
+            format!("{word} eye ({letter}): {s}"),
+            format!("{word} {s}"),
+            format!("Clear {lower} {s}"),
+        ),
+        None => (
+            format!("{word} eye ({letter})"),
+            format!("{word} prescription"),
+            format!("Clear {lower} eye"),
+        ),
+    };
+    let named = move |what: &str| match subject {
+        Some(s) => format!("{word} {s} {what}"),
+        None => format!("{word} {what}"),
+    };
     let fields = use_context::<FieldsShown>()
         .map(|f| f.0)
         .unwrap_or_else(|| Remembered::new("lensplane.fields"));
@@ -221,28 +242,28 @@ pub fn EyeEntryForm(
     let id = |what: &str| format!("{id_prefix}-{lower}-{what}");
     view! {
         <fieldset class="eye-entry">
-            <legend>{format!("{word} eye ({letter})")}</legend>
+            <legend>{legend}</legend>
             <p class=move || glance.with(|g| g.1)>{move || glance.with(|g| g.0.clone())}</p>
-            <TextField id=id("line") label=format!("{word} prescription") label_hidden=true
+            <TextField id=id("line") label=line_label label_hidden=true
                 value=entry.line messages=messages(Slot::Line) inputmode="text"
                 placeholder="-8.00 -2.00 x180" on_edit=line_edit/>
             <div class="entry-tools">
             <details class="rx-fields-toggle" prop:open=move || fields.is_open() on:toggle=on_toggle(fields)>
                 <summary>"Separate fields"</summary>
                 <div class="rx-fields">
-                    <TextField id=id("sphere") label="Sphere" name=format!("{word} sphere") value=entry.sphere
+                    <TextField id=id("sphere") label="Sphere" name=named("sphere") value=entry.sphere
                         messages=messages(Slot::Sphere) signed=true step=StepKind::Sphere unit="D"
                         placeholder="-2.00" on_edit=field_edit/>
-                    <TextField id=id("cylinder") label="Cylinder" name=format!("{word} cylinder") value=entry.cylinder
+                    <TextField id=id("cylinder") label="Cylinder" name=named("cylinder") value=entry.cylinder
                         messages=messages(Slot::Cylinder) signed=true step=StepKind::Cylinder unit="D"
                         placeholder="-0.75" on_edit=field_edit/>
-                    <TextField id=id("axis") label="Axis" name=format!("{word} axis") value=entry.axis
+                    <TextField id=id("axis") label="Axis" name=named("axis") value=entry.axis
                         messages=messages(Slot::Axis) step=StepKind::Axis(5) unit="°" inputmode="numeric"
                         placeholder="180" on_edit=field_edit/>
                 </div>
             </details>
             <button type="button" class="button quiet" on:click=move |_| entry.clear()>
-                {format!("Clear {lower} eye")}
+                {clear}
             </button>
             </div>
             {children.map(|c| c())}

@@ -21,6 +21,7 @@ const DESTINATIONS = [
   ['vertex', `vertex?${RX}`],
   ['equivalent', `equivalent?${RX}`],
   ['near', `near?${RX}&add=2.50&age=50`],
+  ['chart', `chart?${RX}`],
   ['history', 'history'],
   ['about', 'about'],
 ];

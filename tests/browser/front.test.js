@@ -24,6 +24,7 @@ const DESTINATIONS = [
   ['image-size', `image-size?${RX}&rf=6&rt=2&rn=1.5`],
   // Notes §14 check values [derived from ANSI Z80.1-2015 as publicly summarised].
   ['lens-check', `lens-check?r=${enc('-2.00 -1.00 x90')}&rm=${enc('-2.10 -1.12 x93')}&l=${enc('+3.00 -5.00 x180')}&lm=${enc('+3.10 -5.22 x179')}&add=2.00&radd=2.10&ladd=2.25`],
+  ['chart', `chart?${RX}`],
   ['history', 'history'],
   ['about', 'about'],
 ];

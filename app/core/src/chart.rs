@@ -332,6 +332,27 @@ impl ChartSettings {
         2 * sizes - usize::from(self.min == 0)
     }
 
+    /// The settings in one line, as the history lists a saved chart: both
+    /// planes, the powers and the ladder.
+    ///
+    /// ```
+    /// assert_eq!(
+    ///     lensplane_core::ChartSettings::default().summary(),
+    ///     "12 mm → cornea (contact lens), minus and plus 4.00 to 20.00 D in 0.25 D steps, contact-lens steps"
+    /// );
+    /// ```
+    pub fn summary(&self) -> String {
+        format!(
+            "{} \u{2192} {}, minus and plus {} to {} D in {} D steps, {}",
+            plane_words(self.from),
+            plane_words(self.to),
+            size_text(self.min),
+            size_text(self.max),
+            size_text(self.step),
+            self.ladder.words()
+        )
+    }
+
     /// The link values of these settings, in key order
     /// (`from`, `to`, `min`, `max`, `step`, `ladder`).
     ///

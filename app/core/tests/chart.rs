@@ -140,6 +140,11 @@ fn titles_name_both_planes_and_the_ladder() {
         "Vertex conversion chart: cornea (contact lens) → 12 mm, spectacle quarter steps"
     );
     assert_eq!(c.header[0], "Power at the cornea");
+    // The one-line summary the history lists names the same planes, powers and ladder.
+    assert_eq!(
+        c.settings.summary(),
+        "cornea (contact lens) → 12 mm, minus and plus 4.00 to 8.00 D in 1.00 D steps, spectacle quarter steps"
+    );
 }
 
 #[test]

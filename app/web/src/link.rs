@@ -91,6 +91,13 @@ impl Destination {
         !matches!(self, Destination::History | Destination::About)
     }
 
+    /// Whether its calculations are per eye. A conversion chart is not: it
+    /// is saved in the history without eye summaries, with a one-line
+    /// summary of its settings instead.
+    pub fn has_eyes(self) -> bool {
+        self.is_calculator() && self != Destination::Chart
+    }
+
     /// The destination a route path (without the deploy base) names.
     pub fn from_path(path: &str) -> Option<Destination> {
         let trimmed = path.trim_end_matches('/');

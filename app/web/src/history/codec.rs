@@ -3,7 +3,10 @@
 //!
 //! An entry, schema 2: `{"id":"…","t":<ms since 1970 UTC>,"p":"vertex","q":"<link query>","l":"label","e":[eye…]}`,
 //! an eye: `{"s":"R","i":"entered","r":"result","o":"orderable"}`; `l` and
-//! `o` are left out when empty, unknown keys are skipped. Keys are short
+//! `o` are left out when empty, unknown keys are skipped. A calculation
+//! without eyes (the conversion chart) has `"e":[]` and a one-line summary
+//! `"d":"…"` instead (left out when empty; entries saved before have none
+//! and read as before). Keys are short
 //! because 10,000 entries must fit beside everything else in a few
 //! megabytes. `p` is the calculation's [`Destination::id`].
 //!
@@ -84,6 +87,7 @@ fn read_eye(r: &mut Reader, v1: bool) -> Result<Option<EyeSummary>, Malformed> {
 /// One entry at the reader, in schema 2's layout or (`v1`) schema 1's, checked.
 fn read_entry(r: &mut Reader, v1: bool) -> Result<Entry, Unreadable> {
     let (mut id, mut t, mut p, mut q, mut label, mut eyes) = (None, None, None, None, String::new(), None);
+    let mut summary = String::new();
     r.object(1, |r, k| {
         match (k, v1) {
             ("id", _) => id = Some(r.text()?),
@@ -97,6 +101,7 @@ fn read_entry(r: &mut Reader, v1: bool) -> Result<Entry, Unreadable> {
                 (p, q) = (Some(path.trim_start_matches('/').into()), Some(query.into()));
             }
             ("l", false) | ("label", true) => label = text_or_null(r)?,
+            ("d", false) => summary = text_or_null(r)?,
             ("e", false) | ("eyes", true) => {
                 let mut list = Vec::with_capacity(2);
                 r.array(2, |r| read_eye(r, v1).map(|e| list.push(e)))?;
@@ -116,7 +121,7 @@ fn read_entry(r: &mut Reader, v1: bool) -> Result<Entry, Unreadable> {
     let Some(eyes) = eyes.into_iter().collect() else {
         return Err(Unreadable::Invalid(Invalid::Eye(id)));
     };
-    let entry = Entry::new(id, t, destination, q, label, eyes);
+    let entry = Entry::new(id, t, destination, q, label, eyes).with_summary(summary);
     entry.check().map_err(Unreadable::Invalid)?;
     Ok(entry)
 }
@@ -219,6 +224,10 @@ pub fn write_entry(out: &mut String, e: &Entry) {
     if !e.label.is_empty() {
         key(out, "l");
         quote(out, &e.label);
+    }
+    if !e.summary.is_empty() {
+        key(out, "d");
+        quote(out, &e.summary);
     }
     key(out, "e");
     out.push('[');
@@ -385,6 +394,64 @@ mod tests {
         for (t, why) in invalid {
             assert_eq!(month(&t), Err(Unreadable::Invalid(why)), "{t}");
         }
+    }
+
+    #[test]
+    fn a_chart_is_stored_without_eyes_with_its_summary_and_read_back() {
+        let chart = Entry::new(
+            "c1".into(),
+            1_714_745_100_000,
+            Destination::Chart,
+            "from=12&to=0&min=4&max=20&step=0.25".into(),
+            "Wall, room 2".into(),
+            vec![],
+        )
+        .with_summary("12 mm → cornea (contact lens), contact-lens steps".into());
+        let vertex = Entry::new(
+            "v1".into(),
+            1_714_745_160_000,
+            Destination::Vertex,
+            "r=-8.00".into(),
+            String::new(),
+            vec![eye(Eye::Right)],
+        );
+        let mut out = String::new();
+        write_entries(&mut out, &[chart.clone(), vertex.clone()]);
+        assert!(
+            out.starts_with(
+                r#"[{"id":"c1","t":1714745100000,"p":"chart","q":"from=12&to=0&min=4&max=20&step=0.25","l":"Wall, room 2","d":"12 mm → cornea (contact lens), contact-lens steps","e":[]},"#
+            ),
+            "{out}"
+        );
+        // An entry with eyes writes no summary: its layout is as before.
+        assert!(out.ends_with(&format!(
+            r#"{{"id":"v1","t":1714745160000,"p":"vertex","q":"r=-8.00","e":[{EYE}]}}]"#
+        )));
+        assert_eq!(month(&out), Ok(vec![chart.clone(), vertex]));
+        assert_eq!(month(&out).unwrap()[0].summary, chart.summary);
+        let checked: serde_json::Value = serde_json::from_str(&out).unwrap();
+        assert_eq!(checked[0]["e"].as_array().map(Vec::len), Some(0));
+        // A chart saved with no summary still reads; one with eyes, or a calculation with eyes
+        // saved without any, cannot be kept.
+        let bare = month(r#"[{"id":"c","t":1714745100000,"p":"chart","q":"","e":[]}]"#).unwrap();
+        assert_eq!(
+            (bare[0].destination, bare[0].summary.as_str()),
+            (Destination::Chart, "")
+        );
+        assert_eq!(
+            month(&format!(
+                r#"[{{"id":"c","t":1714745100000,"p":"chart","q":"","d":"x","e":[{EYE}]}}]"#
+            )),
+            Err(Unreadable::Invalid(Invalid::Calculation("c".into())))
+        );
+        assert_eq!(
+            month(r#"[{"id":"v","t":1714745100000,"p":"near","q":"","d":"x","e":[]}]"#),
+            Err(Unreadable::Invalid(Invalid::Calculation("v".into())))
+        );
+        assert_eq!(
+            month(r#"[{"id":"c","t":1714745100000,"p":"chart","q":"","d":3,"e":[]}]"#),
+            Err(Unreadable::Shape)
+        );
     }
 
     #[test]

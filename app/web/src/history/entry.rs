@@ -38,8 +38,12 @@ pub struct Entry {
     pub query: String,
     /// Optional label (no patient identifiers).
     pub label: String,
-    /// One or two eyes.
+    /// One or two eyes; none for a calculation without eyes
+    /// ([`Destination::has_eyes`]: the conversion chart).
     pub eyes: Vec<EyeSummary>,
+    /// What an entry without eyes shows instead, in one line (a chart's
+    /// planes, powers and ladder); empty for the others.
+    pub summary: String,
     /// What the filter searches (never stored): see [`super::search::index`].
     search: String,
 }
@@ -98,8 +102,19 @@ impl Entry {
             query,
             label,
             eyes,
+            summary: String::new(),
             search,
         }
+    }
+
+    /// The same entry with `summary` (indexed for the filter too); an
+    /// empty one leaves it as it was.
+    pub fn with_summary(mut self, summary: String) -> Entry {
+        if !summary.is_empty() {
+            super::search::index_summary(&mut self.search, &summary);
+            self.summary = summary;
+        }
+        self
     }
 
     /// The filter's search text.
@@ -116,8 +131,9 @@ impl Entry {
         }
     }
 
-    /// Checks what the types do not: the id, the date (2000–2199), and the
-    /// length of every text.
+    /// Checks what the types do not: the id, the date (2000–2199), one or
+    /// two eyes (none for a calculation without eyes), and the length of
+    /// every text.
     pub fn check(&self) -> Result<(), Invalid> {
         Entry::check_id(&self.id)?;
         let id = || self.id.clone();
@@ -127,7 +143,12 @@ impl Entry {
         if !fits(&self.label, LABEL_MAX) {
             return Err(Invalid::Label(id()));
         }
-        if !fits(&self.query, FIELD_MAX) || self.eyes.is_empty() || self.eyes.len() > 2 {
+        let eyes_fit = if self.destination.has_eyes() {
+            (1..=2).contains(&self.eyes.len())
+        } else {
+            self.eyes.is_empty()
+        };
+        if !fits(&self.query, FIELD_MAX) || !fits(&self.summary, FIELD_MAX) || !eyes_fit {
             return Err(Invalid::Calculation(id()));
         }
         let texts = |e: &EyeSummary| {
@@ -213,6 +234,34 @@ mod tests {
         let mut long = ok.clone();
         long.label = "é".repeat(60);
         assert_eq!(long.check(), Ok(()));
+    }
+
+    #[test]
+    fn a_chart_is_kept_without_eyes_and_the_others_need_one_or_two() {
+        let chart = Entry::new(
+            "c".into(),
+            1_714_745_100_000,
+            Destination::Chart,
+            "from=12&to=0".into(),
+            String::new(),
+            vec![],
+        )
+        .with_summary("12 mm → cornea (contact lens)".into());
+        assert_eq!(chart.check(), Ok(()));
+        assert!(
+            chart.search_text().contains("12 mm → cornea"),
+            "{}",
+            chart.search_text()
+        );
+        let mut with_eye = chart.clone();
+        with_eye.eyes = vec![eye(Eye::Right)];
+        assert_eq!(with_eye.check(), Err(Invalid::Calculation("c".into())));
+        let mut long = chart.clone();
+        long.summary = "s".repeat(401);
+        assert_eq!(long.check(), Err(Invalid::Calculation("c".into())));
+        let mut vertex = chart.clone();
+        vertex.destination = Destination::Vertex;
+        assert_eq!(vertex.check(), Err(Invalid::Calculation("c".into())));
     }
 
     #[test]

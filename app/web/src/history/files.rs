@@ -107,12 +107,27 @@ pub fn three_digit_axes(text: &str) -> String {
 }
 
 /// One row per eye per calculation, newest first, local times, trade
-/// notation; the calculation as its stable id. Starts with a byte-order
-/// mark so spreadsheets read the × sign.
+/// notation; the calculation as its stable id. A calculation without eyes
+/// (a conversion chart) has one row, its summary as the result. Starts
+/// with a byte-order mark so spreadsheets read the × sign.
 pub fn to_csv<Tz: TimeZone>(entries: &[Entry], tz: &Tz) -> String {
     let mut out = String::from("\u{feff}date,time,calculation,label,eye,entered,result,orderable\r\n");
     for e in entries.iter().rev() {
         let when = local(e.saved_at_ms, tz);
+        if e.eyes.is_empty() {
+            let cells = [
+                iso_date(when),
+                clock(when),
+                e.destination.id().into(),
+                field(&e.label, true),
+                String::new(),
+                String::new(),
+                field(&e.summary, true),
+                String::new(),
+            ];
+            out.push_str(&cells.join(","));
+            out.push_str("\r\n");
+        }
         for eye in &e.eyes {
             let cells = [
                 iso_date(when),
@@ -188,6 +203,30 @@ mod tests {
              2024-05-03,16:05,vertex,\"Room 2, bench\",R,-8.00 -2.00 ×180,-7.30 -1.63 ×180,-7.25 -1.75 ×180\r\n\
              2024-05-03,16:05,vertex,\"Room 2, bench\",L,-4.00 DS,-3.82 DS,\r\n"
         );
+    }
+
+    #[test]
+    fn a_chart_has_one_csv_row_with_its_summary_and_reimports_from_json() {
+        let chart = Entry::new(
+            "k".into(),
+            MAY,
+            Destination::Chart,
+            "from=12&to=0".into(),
+            "Wall".into(),
+            vec![],
+        )
+        .with_summary("12 mm → cornea (contact lens), contact-lens steps, 4.00 to 20.00 D".into());
+        let entries = [entry("a", MAY - 60_000, "", 1), chart.clone()];
+        let csv = to_csv(&entries, &FixedOffset::east_opt(0).unwrap());
+        let lines: Vec<&str> = csv.split("\r\n").collect();
+        // Newest last in the list, first in the file.
+        assert_eq!(
+            lines[1],
+            "2024-05-03,14:05,chart,Wall,,,\"12 mm → cornea (contact lens), contact-lens steps, 4.00 to 20.00 D\","
+        );
+        assert_eq!(lines.len(), 4, "{csv}");
+        assert_eq!(read_export(&to_json(&entries)), Ok(entries.to_vec()));
+        assert_eq!(read_export(&to_json(&entries)).unwrap()[1].summary, chart.summary);
     }
 
     #[test]

@@ -38,6 +38,9 @@ pub struct SaveRequest {
     /// Optional short label (no patient identifiers).
     pub label: String,
     pub eyes: Vec<EyeSummary>,
+    /// One line saying what was calculated, for a calculation without
+    /// eyes (a conversion chart); empty for the others.
+    pub summary: String,
 }
 
 /// Milliseconds of reading per slice while opening the history (a frame
@@ -138,7 +141,7 @@ impl History {
         let id = format!("{t:x}-{:x}", (js_sys::Math::random() * 4_294_967_296.0) as u32);
         let label: String = request.label.trim().chars().take(entry::LABEL_MAX).collect();
         let query = request.query.encode(request.destination.keys());
-        let entry = Entry::new(id, t, request.destination, query, label, request.eyes);
+        let entry = Entry::new(id, t, request.destination, query, label, request.eyes).with_summary(request.summary);
         self.update(|s| {
             s.add(entry)?;
             if let Mode::SessionOnly(_) = s.mode() {

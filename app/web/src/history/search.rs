@@ -85,6 +85,13 @@ pub fn index(label: &str, destination: Destination, eyes: &[EyeSummary]) -> Stri
     s
 }
 
+/// Adds an entry's one-line summary (an entry without eyes) to its search
+/// text, as one more line.
+pub fn index_summary(search: &mut String, summary: &str) {
+    fold_into(search, summary);
+    search.push('\n');
+}
+
 /// Indices of the entries whose label, calculation or one of whose powers
 /// contains `text` (case, spacing, × and − as typed do not matter), of the
 /// calculation `only` if one is given, newest first. The text is one

@@ -168,6 +168,7 @@ impl<R: Send + Sync + 'static> Eyes<R> {
             query,
             label,
             eyes,
+            summary: String::new(),
         })
     }
 }

@@ -101,7 +101,12 @@ fn entry_item(e: &Entry, base: &str) -> web_sys::Element {
         }
         add(&eyes, &row);
     }
-    add(&li, &eyes);
+    // A calculation without eyes (a conversion chart) says what it was instead.
+    if e.eyes.is_empty() {
+        add(&li, &el("p", "history-summary", &e.summary));
+    } else {
+        add(&li, &eyes);
+    }
     let actions = el("div", "actions", "");
     let open = el("a", "button", "Open");
     let _ = open.set_attribute(

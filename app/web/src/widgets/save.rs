@@ -18,6 +18,9 @@ pub fn SaveBar(
     text: Signal<Option<String>>,
     /// What to save for a label, or `None` when there is nothing to save.
     request: Callback<String, Option<SaveRequest>>,
+    /// What saving says when there is nothing to save (by default: enter a prescription).
+    #[prop(optional)]
+    nothing: Option<&'static str>,
 ) -> impl IntoView {
     let history = expect_context::<History>();
     let label = RwSignal::new(String::new());
@@ -30,7 +33,11 @@ pub fn SaveBar(
             }
             Err(e) => status.set(e.message(Action::Save)),
         },
-        None => status.set("Nothing to save yet: enter a prescription for at least one eye.".into()),
+        None => status.set(
+            nothing
+                .unwrap_or("Nothing to save yet: enter a prescription for at least one eye.")
+                .into(),
+        ),
     };
     let copy = move |_| {
         let Some(t) = text.get_untracked() else {

@@ -171,7 +171,9 @@ pub fn assess_substitute(rx: &Rx, settings: &SubstituteSettings) -> SubstituteAs
     let orientation = Orientation::of(&m);
     let cross = m.meridians();
     let (a, b) = (cross.first().power, cross.second().power);
-    let mixed = (a >= 0.125 && b <= -0.125) || (a <= -0.125 && b >= 0.125);
+    // In minus-cylinder form the first meridian (the sphere) is the more
+    // plus one, so mixed means: the first hyperopic, the second myopic.
+    let mixed = a >= 0.125 && b <= -0.125;
     let ratio = (m.sphere() != 0.0).then(|| cyl / m.sphere().abs());
     let limit = match orientation {
         Some(Orientation::WithTheRule) | None => settings.max_cylinder,

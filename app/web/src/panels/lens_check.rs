@@ -356,6 +356,7 @@ pub fn LensCheckPanel() -> impl IntoView {
             query: current.get_untracked(),
             label,
             eyes,
+            summary: String::new(),
         })
     });
     let announcement = move || {

@@ -95,6 +95,65 @@ pub struct LensChange {
     pub words: String,
 }
 
+/// The power-vector cross-check at the worn lens plane: the worn lens (as
+/// it sits) and the over-refraction carried there, each as a power vector
+/// from its sphere, cylinder and axis (Thibos, Wheeler & Horner 1997), add
+/// component by component; the matrix sum must give the same vector.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct VectorCheck {
+    /// The worn lens as it sits on the eye.
+    pub worn: PowerVector,
+    /// The over-refraction carried to the worn lens plane.
+    pub over_refraction: PowerVector,
+    /// `worn + over_refraction`, by vectors.
+    pub sum: PowerVector,
+    /// The vector of the matrix sum ([`OverRefractionReport::combined_at_worn`]).
+    pub matrices: PowerVector,
+    /// The largest difference between `sum` and `matrices` in any
+    /// component, D (≥ 0; rounding error only).
+    pub difference: f64,
+}
+
+impl VectorCheck {
+    fn new(worn: &Rx, over_refraction_at_worn: &Rx, combined: &PowerMatrix) -> VectorCheck {
+        let (w, o) = (worn.power_vector(), over_refraction_at_worn.power_vector());
+        let sum = w.plus(&o);
+        let matrices = combined.power_vector();
+        let d = sum.minus(&matrices);
+        VectorCheck {
+            worn: w,
+            over_refraction: o,
+            sum,
+            matrices,
+            difference: d.m.abs().max(d.j0.abs()).max(d.j45.abs()),
+        }
+    }
+
+    /// True when the two sums agree to well within a hundredth of a dioptre.
+    ///
+    /// ```
+    /// use lensplane_core::*;
+    /// // O4 [derived]: the cross-check at the spectacle plane agrees.
+    /// let r = over_refraction_report(&OverRefractionInput {
+    ///     worn: Rx::new(-7.0, -1.5, 170)?,
+    ///     worn_at: VertexDistance::SPECTACLES,
+    ///     over_refraction: Rx::new(-0.5, -0.25, 80)?,
+    ///     over_refraction_at: VertexDistance::SPECTACLES,
+    ///     target: VertexDistance::CORNEA,
+    ///     rotation: Rotation::NONE,
+    ///     unstable: false,
+    ///     rigid: false,
+    ///     settings: OrderSettings::default(),
+    /// })?;
+    /// assert!(r.vector_check.agrees());
+    /// assert!((r.vector_check.sum.m - -8.375).abs() < 1e-9);
+    /// # Ok::<(), Error>(())
+    /// ```
+    pub fn agrees(&self) -> bool {
+        self.difference < 1e-6
+    }
+}
+
 /// Everything the over-refraction panel shows for one eye. Cylinders are in
 /// minus-cylinder form unless a field says otherwise. Warnings use
 /// [`Field::Rx`] for the worn lens, [`Field::OverRefraction`],
@@ -141,6 +200,8 @@ pub struct OverRefractionReport {
     pub reason: String,
     /// What changed from the worn lens.
     pub change: LensChange,
+    /// The power-vector cross-check of the sum at the worn lens plane.
+    pub vector_check: VectorCheck,
     /// Warnings, each tied to a field. The vertex checks leave out "below a
     /// quarter step": what changed is in `change`.
     pub warnings: Vec<Warning>,
@@ -436,6 +497,11 @@ pub fn over_refraction_report(input: &OverRefractionInput) -> Result<OverRefract
         recommendation,
         reason: reason(input, handled),
         change: change(&order, &worn_at_target, input.target),
+        vector_check: VectorCheck::new(
+            &worn_matrix.to_rx(),
+            &chain.over_refraction_at_worn.to_rx(),
+            &chain.combined_at_worn,
+        ),
         warnings,
     })
 }

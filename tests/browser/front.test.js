@@ -21,6 +21,7 @@ const DESTINATIONS = [
   ['vertex', `vertex?${RX}`],
   ['equivalent', `equivalent?${RX}`],
   ['near', `near?${RX}&add=2.50&age=50`],
+  ['over-refraction', `over-refraction?${RX}&ror=${enc('-0.50 -0.25 x80')}&worn=0&rrot=10`],
   ['history', 'history'],
   ['about', 'about'],
 ];

@@ -39,6 +39,85 @@ pub struct OverRefractionInput {
     pub settings: OrderSettings,
 }
 
+/// The kind of contact lens worn (link `lens`): soft, the default, or
+/// rigid, which [`over_refraction_report`] refuses (decision 16).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Default)]
+pub enum ContactLensKind {
+    /// A soft lens: computed.
+    #[default]
+    Soft,
+    /// A rigid lens: refused (the tear lens is not modelled).
+    Rigid,
+}
+
+impl ContactLensKind {
+    /// Every kind, in the order a form offers them.
+    pub const ALL: [ContactLensKind; 2] = [ContactLensKind::Soft, ContactLensKind::Rigid];
+
+    /// The value a link carries.
+    ///
+    /// ```
+    /// assert_eq!(lensplane_core::ContactLensKind::Rigid.link_value(), "rigid");
+    /// ```
+    pub fn link_value(self) -> &'static str {
+        match self {
+            ContactLensKind::Soft => "soft",
+            ContactLensKind::Rigid => "rigid",
+        }
+    }
+
+    /// Plain words for a form.
+    ///
+    /// ```
+    /// assert_eq!(lensplane_core::ContactLensKind::Soft.words(), "Soft lens");
+    /// ```
+    pub fn words(self) -> &'static str {
+        match self {
+            ContactLensKind::Soft => "Soft lens",
+            ContactLensKind::Rigid => "Rigid lens",
+        }
+    }
+
+    /// True for a rigid lens (the input's `rigid`).
+    ///
+    /// ```
+    /// assert!(lensplane_core::ContactLensKind::Rigid.is_rigid());
+    /// ```
+    pub fn is_rigid(self) -> bool {
+        self == ContactLensKind::Rigid
+    }
+
+    /// From a link value, any letter case; empty means soft.
+    ///
+    /// ```
+    /// use lensplane_core::ContactLensKind;
+    /// assert_eq!(ContactLensKind::from_link("Rigid")?, ContactLensKind::Rigid);
+    /// assert_eq!(ContactLensKind::from_link("")?, ContactLensKind::Soft);
+    /// assert_eq!(ContactLensKind::from_link("hard").unwrap_err().to_string(),
+    ///            "lens type \"hard\" is not one of soft, rigid");
+    /// # Ok::<(), lensplane_core::Error>(())
+    /// ```
+    pub fn from_link(text: &str) -> Result<ContactLensKind, Error> {
+        let t = text.trim();
+        if t.is_empty() {
+            return Ok(ContactLensKind::default());
+        }
+        ContactLensKind::ALL
+            .into_iter()
+            .find(|k| t.eq_ignore_ascii_case(k.link_value()))
+            .ok_or_else(|| {
+                Error::new(
+                    ErrorKind::UnknownChoice {
+                        typed: t.to_string(),
+                        choices: "soft, rigid",
+                    },
+                    Field::LensType,
+                    None,
+                )
+            })
+    }
+}
+
 /// What was done with the rotation entered.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum RotationHandling {

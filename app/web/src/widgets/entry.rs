@@ -190,9 +190,34 @@ pub fn EyeEntryForm(
     result: Memo<Shown<Card>>,
     /// Prefix for element ids (the panel's name).
     id_prefix: &'static str,
+    /// Which of the eye's lenses this entry is, when a panel has more than
+    /// one per eye ("lens worn", "over-refraction"): it joins the legend,
+    /// the labels and the clear button's name.
+    #[prop(optional)]
+    what: Option<&'static str>,
+    /// More inputs of this entry, shown after its own (inside its group, so
+    /// the answer at a glance stays in view while they are typed in).
+    #[prop(optional)]
+    children: Option<Children>,
 ) -> impl IntoView {
     let (word, letter) = eye_words(entry.eye);
     let lower = word.to_ascii_lowercase();
+    let legend = match what {
+        Some(w) => format!("{word} eye ({letter}): {w}"),
+        None => format!("{word} eye ({letter})"),
+    };
+    let named = move |part: &str| match what {
+        Some(w) => format!("{word} {w} {part}"),
+        None => format!("{word} {part}"),
+    };
+    let line_label = match what {
+        Some(w) => format!("{word} {w}"),
+        None => format!("{word} prescription"),
+    };
+    let clear_label = match what {
+        Some(w) => format!("Clear {lower} {w}"),
+        None => format!("Clear {lower} eye"),
+    };
     let fields = use_context::<FieldsShown>()
         .map(|f| f.0)
         .unwrap_or_else(|| Remembered::new("lensplane.fields"));
@@ -217,30 +242,31 @@ pub fn EyeEntryForm(
     let id = |what: &str| format!("{id_prefix}-{lower}-{what}");
     view! {
         <fieldset class="eye-entry">
-            <legend>{format!("{word} eye ({letter})")}</legend>
+            <legend>{legend}</legend>
             <p class=move || glance.with(|g| g.1)>{move || glance.with(|g| g.0.clone())}</p>
-            <TextField id=id("line") label=format!("{word} prescription") label_hidden=true
+            <TextField id=id("line") label=line_label label_hidden=true
                 value=entry.line messages=messages(Slot::Line) inputmode="text"
                 placeholder="-8.00 -2.00 x180" on_edit=line_edit/>
             <div class="entry-tools">
             <details class="rx-fields-toggle" prop:open=move || fields.is_open() on:toggle=on_toggle(fields)>
                 <summary>"Separate fields"</summary>
                 <div class="rx-fields">
-                    <TextField id=id("sphere") label="Sphere" name=format!("{word} sphere") value=entry.sphere
+                    <TextField id=id("sphere") label="Sphere" name=named("sphere") value=entry.sphere
                         messages=messages(Slot::Sphere) signed=true step=StepKind::Sphere unit="D"
                         placeholder="-2.00" on_edit=field_edit/>
-                    <TextField id=id("cylinder") label="Cylinder" name=format!("{word} cylinder") value=entry.cylinder
+                    <TextField id=id("cylinder") label="Cylinder" name=named("cylinder") value=entry.cylinder
                         messages=messages(Slot::Cylinder) signed=true step=StepKind::Cylinder unit="D"
                         placeholder="-0.75" on_edit=field_edit/>
-                    <TextField id=id("axis") label="Axis" name=format!("{word} axis") value=entry.axis
+                    <TextField id=id("axis") label="Axis" name=named("axis") value=entry.axis
                         messages=messages(Slot::Axis) step=StepKind::Axis(5) unit="°" inputmode="numeric"
                         placeholder="180" on_edit=field_edit/>
                 </div>
             </details>
             <button type="button" class="button quiet" on:click=move |_| entry.clear()>
-                {format!("Clear {lower} eye")}
+                {clear_label}
             </button>
             </div>
+            {children.map(|c| c())}
         </fieldset>
     }
 }

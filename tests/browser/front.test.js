@@ -25,6 +25,7 @@ const DESTINATIONS = [
   // Notes §14 check values [derived from ANSI Z80.1-2015 as publicly summarised].
   ['lens-check', `lens-check?r=${enc('-2.00 -1.00 x90')}&rm=${enc('-2.10 -1.12 x93')}&l=${enc('+3.00 -5.00 x180')}&lm=${enc('+3.10 -5.22 x179')}&add=2.00&radd=2.10&ladd=2.25`],
   ['chart', `chart?${RX}`],
+  ['over-refraction', `over-refraction?${RX}&ror=${enc('-0.50 -0.25 x80')}&worn=0&rrot=10`],
   ['history', 'history'],
   ['about', 'about'],
 ];

@@ -356,7 +356,8 @@ pub use report_image_size::{
 };
 pub use report_near::{near_report, AmplitudeReport, NearInput, NearReport};
 pub use report_overrefraction::{
-    over_refraction_report, LensChange, OverRefractionInput, OverRefractionReport, RotationHandling,
+    over_refraction_report, ContactLensKind, LensChange, OverRefractionInput, OverRefractionReport, RotationHandling,
+    VectorCheck,
 };
 pub use report_vertex::{vertex_report, LadderKind, VertexInput, VertexReport};
 pub use rotation::{parse_rotation, parse_rotation_amount, Rotation, RotationDirection};

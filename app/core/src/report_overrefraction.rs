@@ -39,6 +39,85 @@ pub struct OverRefractionInput {
     pub settings: OrderSettings,
 }
 
+/// The kind of contact lens worn (link `lens`): soft, the default, or
+/// rigid, which [`over_refraction_report`] refuses (decision 16).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Default)]
+pub enum ContactLensKind {
+    /// A soft lens: computed.
+    #[default]
+    Soft,
+    /// A rigid lens: refused (the tear lens is not modelled).
+    Rigid,
+}
+
+impl ContactLensKind {
+    /// Every kind, in the order a form offers them.
+    pub const ALL: [ContactLensKind; 2] = [ContactLensKind::Soft, ContactLensKind::Rigid];
+
+    /// The value a link carries.
+    ///
+    /// ```
+    /// assert_eq!(lensplane_core::ContactLensKind::Rigid.link_value(), "rigid");
+    /// ```
+    pub fn link_value(self) -> &'static str {
+        match self {
+            ContactLensKind::Soft => "soft",
+            ContactLensKind::Rigid => "rigid",
+        }
+    }
+
+    /// Plain words for a form.
+    ///
+    /// ```
+    /// assert_eq!(lensplane_core::ContactLensKind::Soft.words(), "Soft lens");
+    /// ```
+    pub fn words(self) -> &'static str {
+        match self {
+            ContactLensKind::Soft => "Soft lens",
+            ContactLensKind::Rigid => "Rigid lens",
+        }
+    }
+
+    /// True for a rigid lens (the input's `rigid`).
+    ///
+    /// ```
+    /// assert!(lensplane_core::ContactLensKind::Rigid.is_rigid());
+    /// ```
+    pub fn is_rigid(self) -> bool {
+        self == ContactLensKind::Rigid
+    }
+
+    /// From a link value, any letter case; empty means soft.
+    ///
+    /// ```
+    /// use lensplane_core::ContactLensKind;
+    /// assert_eq!(ContactLensKind::from_link("Rigid")?, ContactLensKind::Rigid);
+    /// assert_eq!(ContactLensKind::from_link("")?, ContactLensKind::Soft);
+    /// assert_eq!(ContactLensKind::from_link("hard").unwrap_err().to_string(),
+    ///            "lens type \"hard\" is not one of soft, rigid");
+    /// # Ok::<(), lensplane_core::Error>(())
+    /// ```
+    pub fn from_link(text: &str) -> Result<ContactLensKind, Error> {
+        let t = text.trim();
+        if t.is_empty() {
+            return Ok(ContactLensKind::default());
+        }
+        ContactLensKind::ALL
+            .into_iter()
+            .find(|k| t.eq_ignore_ascii_case(k.link_value()))
+            .ok_or_else(|| {
+                Error::new(
+                    ErrorKind::UnknownChoice {
+                        typed: t.to_string(),
+                        choices: "soft, rigid",
+                    },
+                    Field::LensType,
+                    None,
+                )
+            })
+    }
+}
+
 /// What was done with the rotation entered.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash)]
 pub enum RotationHandling {
@@ -95,6 +174,65 @@ pub struct LensChange {
     pub words: String,
 }
 
+/// The power-vector cross-check at the worn lens plane: the worn lens (as
+/// it sits) and the over-refraction carried there, each as a power vector
+/// from its sphere, cylinder and axis (Thibos, Wheeler & Horner 1997), add
+/// component by component; the matrix sum must give the same vector.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct VectorCheck {
+    /// The worn lens as it sits on the eye.
+    pub worn: PowerVector,
+    /// The over-refraction carried to the worn lens plane.
+    pub over_refraction: PowerVector,
+    /// `worn + over_refraction`, by vectors.
+    pub sum: PowerVector,
+    /// The vector of the matrix sum ([`OverRefractionReport::combined_at_worn`]).
+    pub matrices: PowerVector,
+    /// The largest difference between `sum` and `matrices` in any
+    /// component, D (≥ 0; rounding error only).
+    pub difference: f64,
+}
+
+impl VectorCheck {
+    fn new(worn: &Rx, over_refraction_at_worn: &Rx, combined: &PowerMatrix) -> VectorCheck {
+        let (w, o) = (worn.power_vector(), over_refraction_at_worn.power_vector());
+        let sum = w.plus(&o);
+        let matrices = combined.power_vector();
+        let d = sum.minus(&matrices);
+        VectorCheck {
+            worn: w,
+            over_refraction: o,
+            sum,
+            matrices,
+            difference: d.m.abs().max(d.j0.abs()).max(d.j45.abs()),
+        }
+    }
+
+    /// True when the two sums agree to well within a hundredth of a dioptre.
+    ///
+    /// ```
+    /// use lensplane_core::*;
+    /// // O4 [derived]: the cross-check at the spectacle plane agrees.
+    /// let r = over_refraction_report(&OverRefractionInput {
+    ///     worn: Rx::new(-7.0, -1.5, 170)?,
+    ///     worn_at: VertexDistance::SPECTACLES,
+    ///     over_refraction: Rx::new(-0.5, -0.25, 80)?,
+    ///     over_refraction_at: VertexDistance::SPECTACLES,
+    ///     target: VertexDistance::CORNEA,
+    ///     rotation: Rotation::NONE,
+    ///     unstable: false,
+    ///     rigid: false,
+    ///     settings: OrderSettings::default(),
+    /// })?;
+    /// assert!(r.vector_check.agrees());
+    /// assert!((r.vector_check.sum.m - -8.375).abs() < 1e-9);
+    /// # Ok::<(), Error>(())
+    /// ```
+    pub fn agrees(&self) -> bool {
+        self.difference < 1e-6
+    }
+}
+
 /// Everything the over-refraction panel shows for one eye. Cylinders are in
 /// minus-cylinder form unless a field says otherwise. Warnings use
 /// [`Field::Rx`] for the worn lens, [`Field::OverRefraction`],
@@ -141,6 +279,8 @@ pub struct OverRefractionReport {
     pub reason: String,
     /// What changed from the worn lens.
     pub change: LensChange,
+    /// The power-vector cross-check of the sum at the worn lens plane.
+    pub vector_check: VectorCheck,
     /// Warnings, each tied to a field. The vertex checks leave out "below a
     /// quarter step": what changed is in `change`.
     pub warnings: Vec<Warning>,
@@ -436,6 +576,11 @@ pub fn over_refraction_report(input: &OverRefractionInput) -> Result<OverRefract
         recommendation,
         reason: reason(input, handled),
         change: change(&order, &worn_at_target, input.target),
+        vector_check: VectorCheck::new(
+            &worn_matrix.to_rx(),
+            &chain.over_refraction_at_worn.to_rx(),
+            &chain.combined_at_worn,
+        ),
         warnings,
     })
 }

@@ -51,6 +51,24 @@ impl PowerVector {
         2.0 * (self.j0 * self.j0 + self.j45 * self.j45).sqrt()
     }
 
+    /// Component-wise sum `self + other`: lenses at one plane add as
+    /// vectors.
+    ///
+    /// ```
+    /// use lensplane_core::Rx;
+    /// // Crossed equal cylinders at one plane: -0.50 ×180 + -0.50 ×090 is -0.50 DS.
+    /// let s = Rx::new(0.0, -0.5, 180)?.power_vector().plus(&Rx::new(0.0, -0.5, 90)?.power_vector());
+    /// assert_eq!((s.m, s.j0.abs(), s.j45.abs()), (-0.5, 0.0, 0.0));
+    /// # Ok::<(), lensplane_core::Error>(())
+    /// ```
+    pub fn plus(&self, other: &PowerVector) -> PowerVector {
+        PowerVector {
+            m: self.m + other.m,
+            j0: self.j0 + other.j0,
+            j45: self.j45 + other.j45,
+        }
+    }
+
     /// Component-wise difference `self − other`.
     ///
     /// ```

@@ -646,6 +646,22 @@ proptest! {
     }
 
     #[test]
+    fn the_reported_vector_check_agrees_wherever_there_is_a_result(
+        worn in any_rx(), or in or_rx(), worn_at in worn_plane(), extra in 0.0..=10.0f64, to in plane(),
+        rot in rotation(),
+    ) {
+        let at = (worn_at + extra).min(30.0);
+        let mut i = input(worn, worn_at, or, at, to);
+        i.rotation = rot;
+        if let Ok(r) = over_refraction_report(&i) {
+            let v = r.vector_check;
+            prop_assert!(v.agrees(), "{worn} + {or}: difference {}", v.difference);
+            // Independent of the report's own sum: the worn lens as it sits, by its own vector.
+            prop_assert!(vectors_agree(&v.worn, &r.worn_on_eye.power_vector(), 1e-12));
+        }
+    }
+
+    #[test]
     fn the_matrix_move_is_the_per_meridian_move(rx in any_rx(), from in plane(), to in plane()) {
         let core = compensate(&rx, mm(from), mm(to));
         let matrix = PowerMatrix::from_rx(&rx).moved((from - to) / 1000.0);

@@ -195,7 +195,7 @@ pub fn EyeEntryForm(
     #[prop(optional)]
     children: Option<Children>,
     /// What this entry holds when a panel has two per eye ("lens ordered",
-    /// "focimeter reading"): named in the legend, the labels and the clear
+    /// "focimeter reading", "lens worn", "over-refraction"): named in the legend, the labels and the clear
     /// button. Without it the entry is the eye's prescription.
     #[prop(optional)]
     subject: Option<&'static str>,

@@ -154,9 +154,7 @@ try {
     // the lens. −8.50 at 12 mm is −7.71 at the cornea (F / (1 − dF), as C1).
     const shows = ['-7.71', '-7.30'];
     await page.evaluate((shows) => {
-      const region = document.querySelector('[role="region"][aria-label="Right eye result"]')
-        || [...document.querySelectorAll('[role="region"], section[aria-labelledby]')].find((r) => r.getAttribute('aria-labelledby')
-          && document.getElementById(r.getAttribute('aria-labelledby'))?.textContent.includes('Right eye'));
+      const region = document.querySelector('section[aria-label="Right eye result"]');
       globalThis.lensplaneSamples = [];
       let pending = null;
       document.addEventListener('keydown', (e) => { pending = { t0: e.timeStamp, want: shows[globalThis.lensplaneSamples.length % 2], gone: shows[(globalThis.lensplaneSamples.length + 1) % 2] }; }, true);

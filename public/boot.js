@@ -22,6 +22,17 @@ const root = new URL('./', import.meta.url);
 // The router reads this, so the app works at / and under any sub-path.
 globalThis.LENSPLANE_ROOT = root.pathname;
 
+// Each lazy destination's chunks (written by the build). A link straight to
+// one starts fetching them now, beside the main wasm, instead of after it.
+const CHUNKS = __CHUNKS__;
+const here = location.pathname.startsWith(root.pathname) ? location.pathname.slice(root.pathname.length) : '';
+for (const file of CHUNKS[here.replace(/\/+$/, '')] || []) {
+  const link = document.createElement('link');
+  // The same request the chunk loader's fetch() makes, so it takes this one.
+  Object.assign(link, { rel: 'preload', as: 'fetch', crossOrigin: 'anonymous', href: new URL(file, root).href });
+  document.head.append(link);
+}
+
 const status = document.getElementById('boot-status');
 
 function offerUpdate(worker) {
@@ -70,8 +81,6 @@ async function startWorker() {
   }
 }
 
-startWorker();
-
 try {
   await init({ module_or_path: new URL('./__APP_WASM__', import.meta.url) });
   if (status) status.remove();
@@ -82,3 +91,6 @@ try {
     status.classList.add('boot-failed');
   }
 }
+// Only once the app runs: on a first visit the worker's download of the whole
+// shell would otherwise share a slow connection with the page's own files.
+startWorker();

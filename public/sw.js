@@ -12,8 +12,11 @@ const PAGE = new URL('index.html', ROOT).href;
 self.addEventListener('install', (event) => {
   event.waitUntil((async () => {
     const cache = await caches.open(CACHE);
-    // 'reload' bypasses the HTTP cache so the precache is exactly this build.
-    await cache.addAll(PRECACHE.map((entry) => new Request(new URL(entry.url, ROOT), { cache: 'reload' })));
+    // A file named by its content hash can only be this build's, so it may come
+    // from the HTTP cache (on a first visit the page has just fetched it); any
+    // other file bypasses that cache so the precache is exactly this build.
+    const hashed = /-[0-9a-f]{10}\.[a-z]+$/;
+    await cache.addAll(PRECACHE.map((entry) => new Request(new URL(entry.url, ROOT), { cache: hashed.test(entry.url) ? 'default' : 'reload' })));
     // The first install takes over at once; later ones wait for the page to
     // offer the update, so an open page never runs on a mix of versions.
     if (!self.registration.active) await self.skipWaiting();

@@ -1,13 +1,35 @@
-//! Assembling the static folder: content-hashed names, the page, the manifest
-//! and the service worker with its generated precache list.
+//! Assembling the static folder: content-hashed names, the page with its
+//! preloads, the chunks and their loader, the manifest and the service worker
+//! with its generated precache list.
 
+use crate::split::{self, Split};
 use sha2::{Digest, Sha256};
+use std::collections::BTreeMap;
 use std::path::Path;
+
+/// Which part of the app a shipped file belongs to.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Part {
+    /// Fetched by the landing page (vertex) on its way to the first result.
+    Landing,
+    /// A lazy destination's code, fetched when it is first opened.
+    Chunk,
+    /// The rest the worker keeps: the worker itself, the manifest, install icons.
+    Rest,
+}
 
 /// One file of the shipped shell, by its URL relative to the app's root.
 pub struct Shipped {
     pub url: String,
     pub bytes: Vec<u8>,
+    pub part: Part,
+}
+
+/// The shipped files and, for each lazy destination (by its id), the chunks
+/// opening it fetches.
+pub struct Assembled {
+    pub files: Vec<Shipped>,
+    pub destinations: BTreeMap<String, Vec<String>>,
 }
 
 pub fn short_hash(bytes: &[u8]) -> String {
@@ -39,7 +61,7 @@ fn replace_all(template: &str, pairs: &[(&str, &str)]) -> Result<String, String>
     Ok(out)
 }
 
-fn collect_dir(dir: &Path, prefix: &str, files: &mut Vec<Shipped>) -> Result<(), String> {
+fn collect_dir(dir: &Path, prefix: &str, part: Part, files: &mut Vec<Shipped>) -> Result<(), String> {
     if !dir.exists() {
         return Ok(());
     }
@@ -52,19 +74,82 @@ fn collect_dir(dir: &Path, prefix: &str, files: &mut Vec<Shipped>) -> Result<(),
         let name = entry.file_name().to_string_lossy().to_string();
         let path = entry.path();
         if path.is_dir() {
-            collect_dir(&path, &format!("{prefix}{name}/"), files)?;
+            collect_dir(&path, &format!("{prefix}{name}/"), part, files)?;
         } else {
             files.push(Shipped {
                 url: format!("{prefix}{name}"),
                 bytes: read(&path)?,
+                part,
             });
         }
     }
     Ok(())
 }
 
+/// The chunks under their hashed names; returns file name → shipped name.
+fn chunks(parts: &Split, files: &mut Vec<Shipped>) -> Result<BTreeMap<String, String>, String> {
+    let mut names = BTreeMap::new();
+    for path in &parts.chunks {
+        let bytes = read(path)?;
+        let stem = path
+            .file_stem()
+            .map(|s| s.to_string_lossy().to_string())
+            .unwrap_or_default();
+        let url = hashed(&stem, "wasm", &bytes);
+        names.insert(format!("{stem}.wasm"), url.clone());
+        files.push(Shipped {
+            url,
+            bytes,
+            part: Part::Chunk,
+        });
+    }
+    Ok(names)
+}
+
+/// Each lazy destination's id (the split point's name with `-` for `_`) and
+/// the shipped chunks it needs.
+fn destinations(parts: &Split, names: &BTreeMap<String, String>) -> Result<BTreeMap<String, Vec<String>>, String> {
+    let mut out = BTreeMap::new();
+    for (split, stems) in &parts.needs {
+        let urls = stems
+            .iter()
+            .map(|stem| {
+                names
+                    .get(&format!("{stem}.wasm"))
+                    .cloned()
+                    .ok_or_else(|| format!("the splitter lists {stem} for {split} but wrote no such chunk"))
+            })
+            .collect::<Result<Vec<_>, _>>()?;
+        out.insert(split.replace('_', "-"), urls);
+    }
+    Ok(out)
+}
+
+/// `{"near":["split_near-….wasm","chunk_3-….wasm"],…}` for boot.js.
+fn destinations_json(destinations: &BTreeMap<String, Vec<String>>) -> String {
+    let entries: Vec<String> = destinations
+        .iter()
+        .map(|(id, urls)| {
+            let list: Vec<String> = urls.iter().map(|u| format!("\"{u}\"")).collect();
+            format!("\"{id}\":[{}]", list.join(","))
+        })
+        .collect();
+    format!("{{{}}}", entries.join(","))
+}
+
+/// The page's preloads: the main wasm, the glue and what the glue imports
+/// start downloading with the page instead of one after another.
+fn preloads(wasm: &str, modules: &[&str]) -> String {
+    let mut out =
+        format!("<link rel=\"preload\" href=\"./{wasm}\" as=\"fetch\" type=\"application/wasm\" crossorigin>");
+    for m in modules {
+        out.push_str(&format!("\n<link rel=\"modulepreload\" href=\"./{m}\">"));
+    }
+    out
+}
+
 /// Writes the static folder into `out` and returns every shipped file.
-pub fn assemble(root: &Path, bindgen: &Path, out: &Path, build_id: &str) -> Result<Vec<Shipped>, String> {
+pub fn assemble(root: &Path, bindgen: &Path, parts: &Split, out: &Path, build_id: &str) -> Result<Assembled, String> {
     let public = root.join("public");
     let mut files: Vec<Shipped> = Vec::new();
 
@@ -73,42 +158,75 @@ pub fn assemble(root: &Path, bindgen: &Path, out: &Path, build_id: &str) -> Resu
     let glue = read(&bindgen.join("lensplane.js"))?;
     let glue_name = hashed("lensplane", "js", &glue);
     // Inline-JS snippets of dependencies keep the relative paths the glue imports.
-    collect_dir(&bindgen.join("snippets"), "snippets/", &mut files)?;
+    collect_dir(&bindgen.join("snippets"), "snippets/", Part::Landing, &mut files)?;
+    let mut modules: Vec<String> = files
+        .iter()
+        .map(|f| f.url.clone())
+        .filter(|u| u.ends_with(".js"))
+        .collect();
+
+    let names = chunks(parts, &mut files)?;
+    let destinations = destinations(parts, &names)?;
+    let loader = split::rewrite_loader(&read_text(&parts.loader)?, &glue_name, &names)?;
+    files.push(Shipped {
+        url: split::LOADER.into(),
+        bytes: loader.into_bytes(),
+        part: Part::Landing,
+    });
+    // Not the loader: the glue names it, and a sixth request at the page's
+    // start (page, css, wasm, glue, loader, boot.js) held back the page's load
+    // in headless Chromium against the local server.
+    modules.insert(0, glue_name.clone());
 
     let boot = replace_all(
         &read_text(&public.join("boot.js"))?,
-        &[("__APP_JS__", &glue_name), ("__APP_WASM__", &wasm_name)],
+        &[
+            ("__APP_JS__", &glue_name),
+            ("__APP_WASM__", &wasm_name),
+            ("__CHUNKS__", &destinations_json(&destinations)),
+        ],
     )?;
     let boot_name = hashed("boot", "js", boot.as_bytes());
     let css = read(&public.join("styles.css"))?;
     let css_name = hashed("styles", "css", &css);
+    let preload_tags = preloads(&wasm_name, &modules.iter().map(String::as_str).collect::<Vec<_>>());
 
     files.push(Shipped {
         url: wasm_name,
         bytes: wasm,
+        part: Part::Landing,
     });
     files.push(Shipped {
         url: glue_name,
         bytes: glue,
+        part: Part::Landing,
     });
     files.push(Shipped {
         url: boot_name.clone(),
         bytes: boot.into_bytes(),
+        part: Part::Landing,
     });
     files.push(Shipped {
         url: css_name.clone(),
         bytes: css,
+        part: Part::Landing,
     });
-    collect_dir(&public.join("icons"), "icons/", &mut files)?;
+    collect_dir(&public.join("icons"), "icons/", Part::Rest, &mut files)?;
+    // The masthead shows the SVG icon on every page.
+    for f in files.iter_mut().filter(|f| f.url == "icons/icon.svg") {
+        f.part = Part::Landing;
+    }
     files.push(Shipped {
         url: "manifest.json".into(),
         bytes: read(&root.join("manifest.json"))?,
+        part: Part::Rest,
     });
 
     let version = env!("CARGO_PKG_VERSION");
     let index = replace_all(
         &read_text(&public.join("index.html"))?,
         &[
+            ("__PRELOADS__", &preload_tags),
             ("__BOOT_JS__", &boot_name),
             ("__STYLES_CSS__", &css_name),
             ("__BUILD_ID__", build_id),
@@ -118,6 +236,7 @@ pub fn assemble(root: &Path, bindgen: &Path, out: &Path, build_id: &str) -> Resu
     files.push(Shipped {
         url: "index.html".into(),
         bytes: index.into_bytes(),
+        part: Part::Landing,
     });
 
     // The worker precaches every file above; its own bytes change whenever any
@@ -139,6 +258,7 @@ pub fn assemble(root: &Path, bindgen: &Path, out: &Path, build_id: &str) -> Resu
     files.push(Shipped {
         url: "sw.js".into(),
         bytes: sw.into_bytes(),
+        part: Part::Rest,
     });
 
     for f in &files {
@@ -148,5 +268,5 @@ pub fn assemble(root: &Path, bindgen: &Path, out: &Path, build_id: &str) -> Resu
         }
         std::fs::write(&path, &f.bytes).map_err(|e| format!("cannot write {}: {e}", path.display()))?;
     }
-    Ok(files)
+    Ok(Assembled { files, destinations })
 }

@@ -6,14 +6,16 @@
 //! ```
 //!
 //! The build needs nothing beyond the package registries: the wasm target comes
-//! from rustup, the bindings from the `wasm-bindgen-cli-support` crate pinned to
-//! the same version as `wasm-bindgen` in Cargo.lock, and the optional size pass
-//! from npm's `binaryen` package (installed by `npm ci` in `tests/`).
+//! from rustup, the splitting at the lazy destinations from the
+//! `wasm_split_cli_support` crate, the bindings from the `wasm-bindgen-cli-support`
+//! crate pinned to the same version as `wasm-bindgen` in Cargo.lock, and the
+//! optional size pass from npm's `binaryen` package (installed by `npm ci` in `tests/`).
 
 mod assets;
 mod pipeline;
 mod serve;
 mod sizes;
+mod split;
 
 use std::path::PathBuf;
 use std::process::ExitCode;

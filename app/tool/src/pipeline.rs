@@ -1,6 +1,8 @@
-//! The build: wasm target → cargo → wasm-bindgen → (wasm-opt, terser) → hashed static folder.
+//! The build: wasm target → cargo (linked with relocations) → split at the lazy
+//! destinations → wasm-bindgen on the main module → (wasm-opt on the main module
+//! and every chunk, terser on the glue and the loader) → hashed static folder.
 
-use crate::{assets, sizes, Options};
+use crate::{assets, sizes, split, Options};
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
@@ -12,12 +14,18 @@ const MIN_WASM_OPT: u32 = 118;
 
 pub fn build(root: &Path, opts: &Options) -> Result<(), String> {
     ensure_target()?;
-    let wasm = cargo_build(root)?;
+    let raw = cargo_build(root)?;
     let staging = opts.out.with_extension("staging");
     let _ = std::fs::remove_dir_all(&staging);
     let bindgen_dir = staging.join("bindgen");
     let site = staging.join("site");
     std::fs::create_dir_all(&bindgen_dir).map_err(|e| format!("cannot create {}: {e}", bindgen_dir.display()))?;
+
+    println!("lensplane: splitting the app at its lazy destinations (wasm_split_cli_support)");
+    let parts = split::split(&raw, &staging.join("split"))?;
+    for (name, stems) in &parts.needs {
+        println!("lensplane:   {name}: {}", stems.join(" + "));
+    }
 
     println!(
         "lensplane: generating bindings (wasm-bindgen {})",
@@ -25,13 +33,17 @@ pub fn build(root: &Path, opts: &Options) -> Result<(), String> {
     );
     let mut bindgen = wasm_bindgen_cli_support::Bindgen::new();
     bindgen
-        .input_path(&wasm)
+        .input_path(&parts.main)
         .out_name("lensplane")
         .web(true)
         .map_err(|e| e.to_string())?
         // Without the default module path the page cannot find its wasm.
         .omit_default_module_path(false)
         .debug(false)
+        // The chunks import the linker's exports (table, stack pointer, …) and
+        // the functions by their raw names.
+        .keep_lld_exports(true)
+        .demangle(false)
         .keep_debug(std::env::var_os("LENSPLANE_NAMES").is_some())
         .typescript(false);
     bindgen
@@ -44,21 +56,26 @@ pub fn build(root: &Path, opts: &Options) -> Result<(), String> {
     }
     if opts.optimise {
         match find_wasm_opt(root) {
-            Some(tool) => optimise(&tool, &wasm_out)?,
+            Some(tool) => {
+                for wasm in std::iter::once(&wasm_out).chain(&parts.chunks) {
+                    optimise(&tool, wasm)?;
+                }
+            }
             None => println!(
                 "lensplane: no working wasm-opt (npm binaryen ≥ {MIN_WASM_OPT}); shipping the unoptimised wasm"
             ),
         }
         let terser = root.join("tests/node_modules/.bin/terser");
         if terser.exists() {
-            minify_glue(&terser, &bindgen_dir.join("lensplane.js"))?;
+            minify_js(&terser, &bindgen_dir.join("lensplane.js"))?;
+            minify_js(&terser, &parts.loader)?;
         } else {
             println!("lensplane: no terser in tests/node_modules; shipping the glue unminified");
         }
     }
 
     let build_id = opts.build_id.clone().unwrap_or_else(|| default_build_id(root));
-    let files = assets::assemble(root, &bindgen_dir, &site, &build_id)?;
+    let built = assets::assemble(root, &bindgen_dir, &parts, &site, &build_id)?;
 
     // Swap the finished folder in whole, so a running server never serves half a build.
     let old = opts.out.with_extension("old");
@@ -70,7 +87,7 @@ pub fn build(root: &Path, opts: &Options) -> Result<(), String> {
     let _ = std::fs::remove_dir_all(&old);
     let _ = std::fs::remove_dir_all(&staging);
 
-    let report = sizes::report(&files, &build_id);
+    let report = sizes::report(&built, &build_id);
     let report_path = opts.out.with_extension("report.json");
     std::fs::write(&report_path, report).map_err(|e| format!("cannot write {}: {e}", report_path.display()))?;
     println!(
@@ -118,12 +135,15 @@ fn target_dir(root: &Path) -> PathBuf {
         .unwrap_or_else(|| root.join("target"))
 }
 
+/// Compiles the app and links it with its relocations kept, which the splitter
+/// needs. `cargo rustc` passes the flag to the final link only, so every
+/// dependency is the same build a plain `cargo build` makes.
 fn cargo_build(root: &Path) -> Result<PathBuf, String> {
     let cargo = std::env::var("CARGO").unwrap_or_else(|_| "cargo".into());
-    println!("lensplane: compiling the app for {TARGET} (release, size-tuned)");
+    println!("lensplane: compiling the app for {TARGET} (release, size-tuned, linked with relocations)");
     run(
         Command::new(cargo).current_dir(root).args([
-            "build",
+            "rustc",
             "--release",
             "--locked",
             "--target",
@@ -132,6 +152,9 @@ fn cargo_build(root: &Path) -> Result<PathBuf, String> {
             "lensplane-web",
             "--bin",
             "lensplane-web",
+            "--",
+            "-C",
+            "link-arg=--emit-relocs",
         ]),
         "cargo build of the app",
     )?;
@@ -179,7 +202,11 @@ fn find_wasm_opt(root: &Path) -> Option<PathBuf> {
 }
 
 fn optimise(tool: &Path, wasm: &Path) -> Result<(), String> {
-    println!("lensplane: wasm-opt -Oz with {}", tool.display());
+    let name = wasm
+        .file_name()
+        .map(|n| n.to_string_lossy().to_string())
+        .unwrap_or_default();
+    println!("lensplane: wasm-opt -Oz {name} with {}", tool.display());
     let tmp = wasm.with_extension("opt.wasm");
     run(
         Command::new(tool).arg(wasm).arg("-o").arg(&tmp).args([
@@ -197,11 +224,11 @@ fn optimise(tool: &Path, wasm: &Path) -> Result<(), String> {
     std::fs::rename(&tmp, wasm).map_err(|e| e.to_string())
 }
 
-/// Minifies the wasm-bindgen glue with npm's terser (about −2 KB gzip). An
-/// ES module: its exports (`default`, `initSync` and the classes) keep their
-/// names.
-fn minify_glue(terser: &Path, glue: &Path) -> Result<(), String> {
-    println!("lensplane: minifying the wasm-bindgen glue with {}", terser.display());
+/// Minifies an ES module with npm's terser (the glue: about −2 KB gzip): its
+/// exports (`default`, `initSync`, the classes, the loader's functions) and
+/// the paths it imports keep their names.
+fn minify_js(terser: &Path, glue: &Path) -> Result<(), String> {
+    println!("lensplane: minifying {} with {}", glue.display(), terser.display());
     let tmp = glue.with_extension("min.js");
     run(
         Command::new(terser)

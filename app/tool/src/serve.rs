@@ -1,8 +1,14 @@
 //! A small local static server: the built folder, route fallback to
-//! index.html, no-cache for the worker and the page, long cache for hashed files.
+//! index.html, no-cache for the worker and the page, long cache for hashed
+//! files, gzip for text and wasm when the browser accepts it (as any real
+//! host would send them, so a throttled first visit measures honest bytes).
 
+use flate2::{write::GzEncoder, Compression};
+use std::collections::HashMap;
+use std::io::Write;
 use std::path::{Component, Path, PathBuf};
-use tiny_http::{Header, Response, Server};
+use std::time::SystemTime;
+use tiny_http::{Header, Request, Response, Server};
 
 /// The same policy the page carries in its meta tag, plus what only a header can say.
 pub const CSP: &str = "default-src 'self'; script-src 'self' 'wasm-unsafe-eval'; style-src 'self'; \
@@ -22,6 +28,41 @@ fn content_type(path: &Path) -> &'static str {
         "ico" => "image/x-icon",
         "txt" => "text/plain; charset=utf-8",
         _ => "application/octet-stream",
+    }
+}
+
+/// Whether a response of this type is worth compressing (images are already).
+fn compressible(content_type: &str) -> bool {
+    !content_type.starts_with("image/png") && content_type != "application/octet-stream"
+}
+
+fn accepts_gzip(request: &Request) -> bool {
+    request.headers().iter().any(|h| {
+        h.field.equiv("Accept-Encoding")
+            && h.value
+                .as_str()
+                .split(',')
+                .any(|v| v.split(';').next().unwrap_or("").trim() == "gzip")
+    })
+}
+
+/// Gzip bodies by file, kept while the file is unchanged (level 9, as the size report counts).
+#[derive(Default)]
+struct Gzipped(HashMap<PathBuf, (Option<SystemTime>, Vec<u8>)>);
+
+impl Gzipped {
+    fn get(&mut self, file: &Path, bytes: &[u8]) -> Vec<u8> {
+        let modified = std::fs::metadata(file).and_then(|m| m.modified()).ok();
+        if let Some((when, body)) = self.0.get(file) {
+            if *when == modified && modified.is_some() {
+                return body.clone();
+            }
+        }
+        let mut enc = GzEncoder::new(Vec::new(), Compression::best());
+        enc.write_all(bytes).expect("writing to memory");
+        let body = enc.finish().expect("writing to memory");
+        self.0.insert(file.to_path_buf(), (modified, body.clone()));
+        body
     }
 }
 
@@ -64,31 +105,59 @@ pub fn serve(dir: &Path, port: u16, prefix: &str) -> Result<(), String> {
     let server = Server::http(("127.0.0.1", port)).map_err(|e| format!("cannot listen on 127.0.0.1:{port}: {e}"))?;
     let actual = server.server_addr().to_ip().map(|a| a.port()).unwrap_or(port);
     println!("Lensplane is served at http://127.0.0.1:{actual}{prefix}  (Ctrl-C stops it)");
-    for request in server.incoming_requests() {
-        let url = request.url().to_string();
-        let response = match resolve(dir, prefix, &url) {
-            Some(file) => match std::fs::read(&file) {
-                Ok(bytes) => {
-                    let cache = if is_hashed(&file) {
-                        "public, max-age=31536000, immutable"
-                    } else {
-                        "no-cache"
-                    };
-                    Response::from_data(bytes)
-                        .with_header(header("Content-Type", content_type(&file)))
-                        .with_header(header("Cache-Control", cache))
+    // A few threads answer at once: one slow reader (a preload the page has
+    // not consumed yet) must not hold back the page's other files.
+    let server = std::sync::Arc::new(server);
+    let gzipped = std::sync::Arc::new(std::sync::Mutex::new(Gzipped::default()));
+    let threads: Vec<_> = (0..4)
+        .map(|_| {
+            let (server, gzipped, dir, prefix) =
+                (server.clone(), gzipped.clone(), dir.to_path_buf(), prefix.to_string());
+            std::thread::spawn(move || {
+                while let Ok(request) = server.recv() {
+                    answer(request, &dir, &prefix, &gzipped);
                 }
-                Err(_) => Response::from_string("not found").with_status_code(404),
-            },
-            None => Response::from_string("not found").with_status_code(404),
-        };
-        let response = response
-            .with_header(header("Content-Security-Policy", CSP))
-            .with_header(header("X-Content-Type-Options", "nosniff"))
-            .with_header(header("Referrer-Policy", "no-referrer"));
-        let _ = request.respond(response);
+            })
+        })
+        .collect();
+    for t in threads {
+        let _ = t.join();
     }
     Ok(())
+}
+
+fn answer(request: Request, dir: &Path, prefix: &str, gzipped: &std::sync::Mutex<Gzipped>) {
+    let url = request.url().to_string();
+    let gzip = accepts_gzip(&request);
+    let response = match resolve(dir, prefix, &url) {
+        Some(file) => match std::fs::read(&file) {
+            Ok(bytes) => {
+                let cache = if is_hashed(&file) {
+                    "public, max-age=31536000, immutable"
+                } else {
+                    "no-cache"
+                };
+                let kind = content_type(&file);
+                let response = if gzip && compressible(kind) {
+                    let body = gzipped.lock().map(|mut g| g.get(&file, &bytes)).unwrap_or_default();
+                    Response::from_data(body).with_header(header("Content-Encoding", "gzip"))
+                } else {
+                    Response::from_data(bytes)
+                };
+                response
+                    .with_header(header("Content-Type", kind))
+                    .with_header(header("Cache-Control", cache))
+                    .with_header(header("Vary", "Accept-Encoding"))
+            }
+            Err(_) => Response::from_string("not found").with_status_code(404),
+        },
+        None => Response::from_string("not found").with_status_code(404),
+    };
+    let response = response
+        .with_header(header("Content-Security-Policy", CSP))
+        .with_header(header("X-Content-Type-Options", "nosniff"))
+        .with_header(header("Referrer-Policy", "no-referrer"));
+    let _ = request.respond(response);
 }
 
 fn header(name: &str, value: &str) -> Header {
@@ -104,6 +173,29 @@ mod tests {
         assert!(is_hashed(Path::new("lensplane-0a1b2c3d4e.wasm")));
         assert!(!is_hashed(Path::new("sw.js")));
         assert!(!is_hashed(Path::new("icon-192.png")));
+    }
+
+    #[test]
+    fn text_and_wasm_are_compressed_images_are_not() {
+        assert!(compressible(content_type(Path::new("lensplane-0a1b2c3d4e.wasm"))));
+        assert!(compressible(content_type(Path::new("index.html"))));
+        assert!(compressible(content_type(Path::new("icons/icon.svg"))));
+        assert!(!compressible(content_type(Path::new("icons/icon-192.png"))));
+    }
+
+    #[test]
+    fn gzip_bodies_decode_to_the_file() {
+        let dir = std::env::temp_dir().join(format!("lensplane-gzip-{}", std::process::id()));
+        std::fs::create_dir_all(&dir).unwrap();
+        let file = dir.join("a.js");
+        let text = "export const a = 1;\n".repeat(200);
+        std::fs::write(&file, &text).unwrap();
+        let body = Gzipped::default().get(&file, text.as_bytes());
+        assert!(body.len() < text.len() / 10);
+        let mut out = String::new();
+        std::io::Read::read_to_string(&mut flate2::read::GzDecoder::new(&body[..]), &mut out).unwrap();
+        assert_eq!(out, text);
+        let _ = std::fs::remove_dir_all(&dir);
     }
 
     #[test]

@@ -11,9 +11,13 @@ use crate::prefs::{FieldsShown, Remembered};
 use crate::sync::{carried_href, ActiveQuery, Base, Carry};
 use crate::theme::ThemeButton;
 use leptos::prelude::*;
+use leptos::wasm_split::{wasm_split, SplitLoaderError};
 use leptos_router::components::Router;
 use leptos_router::hooks::use_location;
 use leptos_router::location::{BrowserUrl, LocationProvider};
+use send_wrapper::SendWrapper;
+use std::future::Future;
+use std::pin::Pin;
 
 /// Where the app is deployed ("" or "/sub"), as recorded by boot.js.
 fn deploy_base() -> String {
@@ -79,16 +83,95 @@ fn Page(base: String) -> impl IntoView {
     });
     move || match page.get().0 {
         Some(Destination::Vertex) => view! { <VertexPanel/> }.into_any(),
-        Some(Destination::Equivalent) => view! { <EquivalentPanel/> }.into_any(),
-        Some(Destination::Near) => view! { <NearPanel/> }.into_any(),
-        Some(Destination::OverRefraction) => view! { <OverRefractionPanel/> }.into_any(),
-        Some(Destination::ImageSize) => view! { <ImageSizePanel/> }.into_any(),
-        Some(Destination::Chart) => view! { <ChartPanel/> }.into_any(),
-        Some(Destination::LensCheck) => view! { <LensCheckPanel/> }.into_any(),
-        Some(Destination::History) => view! { <HistoryPanel/> }.into_any(),
-        Some(Destination::About) => view! { <AboutPanel/> }.into_any(),
+        Some(d @ Destination::Equivalent) => lazy_page(d, || Box::pin(equivalent_page())),
+        Some(d @ Destination::Near) => lazy_page(d, || Box::pin(near_page())),
+        Some(d @ Destination::OverRefraction) => lazy_page(d, || Box::pin(over_refraction_page())),
+        Some(d @ Destination::ImageSize) => lazy_page(d, || Box::pin(image_size_page())),
+        Some(d @ Destination::Chart) => lazy_page(d, || Box::pin(chart_page())),
+        Some(d @ Destination::LensCheck) => lazy_page(d, || Box::pin(lens_check_page())),
+        Some(d @ Destination::History) => lazy_page(d, || Box::pin(history_page())),
+        Some(d @ Destination::About) => lazy_page(d, || Box::pin(about_page())),
         None => view! { <h1>"Not found"</h1><p>"This page does not exist in Lensplane."</p> }.into_any(),
     }
+}
+
+// Every destination but the landing one (vertex) is its own wasm chunk: each
+// function below is a split point (`wasm_split`, the macro behind Leptos'
+// `#[lazy]`, in its `fallible` form, so that a chunk that cannot be fetched is
+// an `Err` the page shows instead of a trap). The build splits the module at
+// these functions (app/tool/src/split.rs); the name before the options is the
+// chunk's name, which boot.js and the build's size report use too: the
+// destination's id with `_` for `-`. To make another destination lazy, add one
+// such function and call it from `Page` through `lazy_page`.
+
+#[wasm_split(equivalent, fallible, wasm_split_path = ::leptos::wasm_split)]
+fn equivalent_page() -> Result<AnyView, SplitLoaderError> {
+    Ok(view! { <EquivalentPanel/> }.into_any())
+}
+
+#[wasm_split(near, fallible, wasm_split_path = ::leptos::wasm_split)]
+fn near_page() -> Result<AnyView, SplitLoaderError> {
+    Ok(view! { <NearPanel/> }.into_any())
+}
+
+#[wasm_split(over_refraction, fallible, wasm_split_path = ::leptos::wasm_split)]
+fn over_refraction_page() -> Result<AnyView, SplitLoaderError> {
+    Ok(view! { <OverRefractionPanel/> }.into_any())
+}
+
+#[wasm_split(image_size, fallible, wasm_split_path = ::leptos::wasm_split)]
+fn image_size_page() -> Result<AnyView, SplitLoaderError> {
+    Ok(view! { <ImageSizePanel/> }.into_any())
+}
+
+#[wasm_split(chart, fallible, wasm_split_path = ::leptos::wasm_split)]
+fn chart_page() -> Result<AnyView, SplitLoaderError> {
+    Ok(view! { <ChartPanel/> }.into_any())
+}
+
+#[wasm_split(lens_check, fallible, wasm_split_path = ::leptos::wasm_split)]
+fn lens_check_page() -> Result<AnyView, SplitLoaderError> {
+    Ok(view! { <LensCheckPanel/> }.into_any())
+}
+
+#[wasm_split(history, fallible, wasm_split_path = ::leptos::wasm_split)]
+fn history_page() -> Result<AnyView, SplitLoaderError> {
+    Ok(view! { <HistoryPanel/> }.into_any())
+}
+
+#[wasm_split(about, fallible, wasm_split_path = ::leptos::wasm_split)]
+fn about_page() -> Result<AnyView, SplitLoaderError> {
+    Ok(view! { <AboutPanel/> }.into_any())
+}
+
+/// A lazy destination's view while its chunk loads.
+type Opening = Pin<Box<dyn Future<Output = Result<AnyView, SplitLoaderError>>>>;
+
+/// A lazy destination: nothing while its chunk arrives (from the worker's
+/// cache that is one task), then the panel; if the chunk cannot be had, a
+/// message at the page and a retry, which starts a fresh load (a failed load
+/// is not remembered, in the loader or here).
+fn lazy_page(d: Destination, open: fn() -> Opening) -> AnyView {
+    let retry = Trigger::new();
+    (move || {
+        retry.track();
+        // The load is not Send, the view is only ever polled on the page's one thread.
+        let opening = SendWrapper::new(open());
+        Suspend::new(async move { opening.await.unwrap_or_else(|_| not_loaded(d, retry)) })
+    })
+    .into_any()
+}
+
+/// The page shown when a destination's chunk could not be loaded.
+fn not_loaded(d: Destination, retry: Trigger) -> AnyView {
+    view! {
+        <h1>{d.title()}</h1>
+        <div class="load-failed" role="alert">
+            <p>"This page of Lensplane could not be loaded: it is not stored on this device yet and the network did not deliver it. Check the connection, then try again. Nothing you typed is lost: it is kept in the link."</p>
+            <button type="button" class="button primary" on:click=move |_| retry.notify()>"Retry"</button>
+        </div>
+    }
+    .into_any()
 }
 
 /// The skip link moves focus to the main region itself: the router would

@@ -42,6 +42,28 @@ const PANELS = [
     link: 'near?r=-6.00&l=%2B6.00&add=2.50&reading=40',
     glance: { Right: ['Add +2.50', 'exact +2.43'], Left: ['Add +2.50', 'exact +2.43'] },
   },
+  {
+    // Notes §13 [Bennett & Rabbetts, power factor with a 3 mm entrance pupil depth, from memory]:
+    // +8.00 at 12 mm gives +13.6 % in spectacles and -9.6 % on changing to contact lenses.
+    name: 'image-size',
+    link: `image-size?r=${enc('+8.00')}&l=${enc('-10.00')}&from=12`,
+    glance: { Right: ['-9.6 %'], Left: [] },
+  },
+  {
+    // Two entries per eye: each keeps the eye's answer in view (the order line is checked
+    // against the notes' values in over-refraction.test.js).
+    name: 'over-refraction',
+    link: `over-refraction?r=${enc('-3.00 -1.00 x180')}&ror=${enc('-0.50')}&l=${enc('-2.00')}&lor=${enc('+0.25')}&worn=0`,
+    groups: (eye) => [`${eye} eye (${eye[0]}): lens worn`, `${eye} eye (${eye[0]}): over-refraction`],
+    glance: { Right: ['Order'], Left: ['Order'] },
+  },
+  {
+    // Notes §14 [ANSI Z80.1-2015 as publicly summarised]: -2.00 -1.00 ×090 read as -2.10 -1.12 ×093 is within.
+    name: 'lens-check',
+    link: `lens-check?r=${enc('-2.00 -1.00 x90')}&rm=${enc('-2.10 -1.12 x93')}&l=${enc('-2.00 -1.00 x90')}&lm=${enc('-2.10 -1.12 x93')}`,
+    groups: (eye) => [`${eye} eye (${eye[0]}): lens ordered`, `${eye} eye (${eye[0]}): focimeter reading`],
+    glance: { Right: ['within tolerance'], Left: ['within tolerance'] },
+  },
 ];
 const SIZES = [[390, 450], [320, 400]];
 
@@ -54,14 +76,14 @@ async function onScreen(locator) {
 }
 
 for (const [width, height] of SIZES) {
-  test(`every field of both eyes keeps its eye's answer in view at ${width} × ${height} (vertex, spherical equivalent, near)`, async () => {
+  test(`every field of both eyes keeps its eye's answer in view at ${width} × ${height} (every calculator with entries per eye)`, async () => {
     const context = await browser.newContext({ viewport: { width, height } });
     const page = await context.newPage();
     for (const panel of PANELS) {
       await page.goto(server.url(panel.link));
       await waitForApp(page);
-      for (const eye of ['Right', 'Left']) {
-        const entry = page.getByRole('group', { name: `${eye} eye (${eye[0]})` });
+      for (const eye of ['Right', 'Left']) for (const name of (panel.groups ?? ((e) => [`${e} eye (${e[0]})`]))(eye)) {
+        const entry = page.getByRole('group', { name, exact: true });
         // The separate fields are one tap away: open them so every field is checked.
         const toggle = entry.locator('details.rx-fields-toggle');
         if (!(await toggle.evaluate((d) => d.open))) await toggle.locator('summary').click();
@@ -69,7 +91,7 @@ for (const [width, height] of SIZES) {
         for (const want of panel.glance[eye]) await glance.getByText(want, { exact: false }).waitFor();
         const fields = entry.locator('input[type="text"]');
         const n = await fields.count();
-        assert.ok(n >= 4, `${panel.name} ${eye}: ${n} fields`);
+        assert.ok(n >= 4, `${panel.name} ${name}: ${n} fields`);
         for (let i = 0; i < n; i += 1) {
           const field = fields.nth(i);
           const id = await field.getAttribute('id');

@@ -179,7 +179,12 @@ pub fn assemble(root: &Path, bindgen: &Path, parts: &Split, out: &Path, build_id
     modules.insert(0, glue_name.clone());
 
     let boot = replace_all(
-        &read_text(&public.join("boot.js"))?,
+        // Minified by the pipeline when terser is there, as written otherwise.
+        &read_text(
+            &Some(bindgen.join("boot.js"))
+                .filter(|p| p.exists())
+                .unwrap_or(public.join("boot.js")),
+        )?,
         &[
             ("__APP_JS__", &glue_name),
             ("__APP_WASM__", &wasm_name),
@@ -187,8 +192,11 @@ pub fn assemble(root: &Path, bindgen: &Path, parts: &Split, out: &Path, build_id
         ],
     )?;
     let boot_name = hashed("boot", "js", boot.as_bytes());
-    let css = read(&public.join("styles.css"))?;
+    let css = crate::css::minify(&read_text(&public.join("styles.css"))?).into_bytes();
     let css_name = hashed("styles", "css", &css);
+    // The lazy destinations' styles: linked by the page when one of them opens.
+    let panels_css = crate::css::minify(&read_text(&public.join("panels.css"))?).into_bytes();
+    let panels_css_name = hashed("panels", "css", &panels_css);
     let preload_tags = preloads(&wasm_name, &modules.iter().map(String::as_str).collect::<Vec<_>>());
 
     files.push(Shipped {
@@ -211,6 +219,11 @@ pub fn assemble(root: &Path, bindgen: &Path, parts: &Split, out: &Path, build_id
         bytes: css,
         part: Part::Landing,
     });
+    files.push(Shipped {
+        url: panels_css_name.clone(),
+        bytes: panels_css,
+        part: Part::Chunk,
+    });
     collect_dir(&public.join("icons"), "icons/", Part::Rest, &mut files)?;
     // The masthead shows the SVG icon on every page.
     for f in files.iter_mut().filter(|f| f.url == "icons/icon.svg") {
@@ -229,6 +242,7 @@ pub fn assemble(root: &Path, bindgen: &Path, parts: &Split, out: &Path, build_id
             ("__PRELOADS__", &preload_tags),
             ("__BOOT_JS__", &boot_name),
             ("__STYLES_CSS__", &css_name),
+            ("__PANELS_CSS__", &panels_css_name),
             ("__BUILD_ID__", build_id),
             ("__VERSION__", version),
         ],

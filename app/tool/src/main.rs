@@ -12,6 +12,7 @@
 //! optional size pass from npm's `binaryen` package (installed by `npm ci` in `tests/`).
 
 mod assets;
+mod css;
 mod pipeline;
 mod serve;
 mod sizes;

@@ -153,13 +153,14 @@ type Opening = Pin<Box<dyn Future<Output = Result<AnyView, SplitLoaderError>>>>;
 /// is not remembered, in the loader or here).
 fn lazy_page(d: Destination, open: fn() -> Opening) -> AnyView {
     let retry = Trigger::new();
-    (move || {
+    let page = move || {
         retry.track();
         // The load is not Send, the view is only ever polled on the page's one thread.
         let opening = SendWrapper::new(open());
         Suspend::new(async move { opening.await.unwrap_or_else(|_| not_loaded(d, retry)) })
-    })
-    .into_any()
+    };
+    // The lazy destinations' styles (panels.css) load with their code, not with the landing page.
+    view! { <link rel="stylesheet" href=build_meta("lensplane-panels-css")/> {page} }.into_any()
 }
 
 /// The page shown when a destination's chunk could not be loaded.

@@ -128,6 +128,20 @@ fn d6_substitute_verdicts() {
         assess_substitute(&Rx::new(-4.0, -0.75, 180).unwrap(), &s).verdict,
         Verdict::Suitable
     );
+    // Both exactly at their limits (0.75 D; 0.50 : 2.00 = 1:4) still count as met.
+    assert_eq!(
+        assess_substitute(&Rx::new(-3.0, -0.75, 180).unwrap(), &s).verdict,
+        Verdict::Suitable
+    );
+    assert_eq!(
+        assess_substitute(&Rx::new(-2.0, -0.5, 180).unwrap(), &s).verdict,
+        Verdict::Suitable
+    );
+    // Just past the ratio limit (0.50 : 1.75) is no longer suitable.
+    assert_eq!(
+        assess_substitute(&Rx::new(-1.75, -0.5, 180).unwrap(), &s).verdict,
+        Verdict::Borderline
+    );
     // Cylinder met, ratio not (0.50 : 1.00).
     let a = assess_substitute(&Rx::new(-1.0, -0.5, 180).unwrap(), &s);
     assert_eq!(a.verdict, Verdict::Borderline);

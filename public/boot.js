@@ -26,7 +26,14 @@ globalThis.LENSPLANE_ROOT = root.pathname;
 // one starts fetching them now, beside the main wasm, instead of after it.
 const CHUNKS = __CHUNKS__;
 const here = location.pathname.startsWith(root.pathname) ? location.pathname.slice(root.pathname.length) : '';
-for (const file of CHUNKS[here.replace(/\/+$/, '')] || []) {
+const lazy = CHUNKS[here.replace(/\/+$/, '')];
+if (lazy) {
+  // The lazy destinations' styles, with their code (the page links them too, for in-app moves).
+  const css = document.createElement('link');
+  Object.assign(css, { rel: 'stylesheet', href: document.querySelector('meta[name="lensplane-panels-css"]').content });
+  document.head.append(css);
+}
+for (const file of lazy || []) {
   const link = document.createElement('link');
   // The same request the chunk loader's fetch() makes, so it takes this one.
   Object.assign(link, { rel: 'preload', as: 'fetch', crossOrigin: 'anonymous', href: new URL(file, root).href });

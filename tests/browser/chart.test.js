@@ -9,7 +9,7 @@ import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
-import { startServer, launch, waitForApp, waitForWorkerControl, watchErrors } from './harness.js';
+import { startServer, launch, waitForApp, waitForWorkerControl, watchErrors, offlineAfterVisit } from './harness.js';
 
 const require = createRequire(import.meta.url);
 const AXE = require.resolve('axe-core/axe.min.js');
@@ -313,13 +313,7 @@ test('saved in the history without eyes, listed with what it is, and reopened fr
 });
 
 test('offline: once visited, a chart opens from its link with the server stopped', async () => {
-  const own = await startServer();
-  const context = await browser.newContext();
-  const page = await context.newPage();
-  await page.goto(own.url('vertex'));
-  await waitForApp(page);
-  await waitForWorkerControl(page);
-  await own.stop();
+  const { server: own, context, page } = await offlineAfterVisit(browser, 'vertex');
   await page.goto(own.url('chart?ladder=spec'));
   await waitForApp(page);
   // §15 [textbook method], spectacle quarter steps [common practice (no source)]: −20.00 → −16.13 → −16.25.

@@ -75,6 +75,22 @@ export async function waitForWorkerControl(page) {
 }
 
 /** Waits until the wasm app has mounted (the loading note is gone and the nav exists). */
+/**
+ * A page of a fresh context that has visited `path` on its own server once,
+ * with the worker in control, and the server then stopped: the next
+ * `page.goto(server.url(…))` is answered by the worker alone.
+ */
+export async function offlineAfterVisit(browser, path) {
+  const server = await startServer();
+  const context = await browser.newContext();
+  const page = await context.newPage();
+  await page.goto(server.url(path));
+  await waitForApp(page);
+  await waitForWorkerControl(page);
+  await server.stop();
+  return { server, context, page };
+}
+
 export async function waitForApp(page) {
   await page.waitForSelector('nav.destinations a', { timeout: 30000 });
 }

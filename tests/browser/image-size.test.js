@@ -12,7 +12,7 @@
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { createRequire } from 'node:module';
-import { startServer, launch, waitForApp, waitForWorkerControl, watchErrors } from './harness.js';
+import { startServer, launch, waitForApp, watchErrors, offlineAfterVisit } from './harness.js';
 
 const require = createRequire(import.meta.url);
 const AXE = require.resolve('axe-core/axe.min.js');
@@ -284,13 +284,7 @@ test('saved to history and reopened from it, the same link and figures', async (
 });
 
 test('offline: after one visit, an image-size link opens and computes with the server stopped', async () => {
-  const own = await startServer();
-  const context = await browser.newContext();
-  const page = await context.newPage();
-  await page.goto(own.url('image-size'));
-  await waitForApp(page);
-  await waitForWorkerControl(page);
-  await own.stop();
+  const { server: own, context, page } = await offlineAfterVisit(browser, 'image-size');
   await page.goto(own.url('image-size?r=%2B8.00&from=12'));
   await waitForApp(page);
   // [derived] +8.00 at 12 mm: change −9.6 %.

@@ -8,7 +8,7 @@
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { createRequire } from 'node:module';
-import { startServer, launch, waitForApp, waitForWorkerControl, watchErrors } from './harness.js';
+import { startServer, launch, waitForApp, watchErrors, offlineAfterVisit } from './harness.js';
 import { storedLayout, writeItems } from './history-fixtures.js';
 
 const require = createRequire(import.meta.url);
@@ -454,13 +454,7 @@ test('the lens check takes nothing from the navigation and gives its lenses to n
 });
 
 test('offline: after one visit, a lens-check link opens and checks with the server stopped', async () => {
-  const own = await startServer();
-  const context = await browser.newContext();
-  const page = await context.newPage();
-  await page.goto(own.url('lens-check'));
-  await waitForApp(page);
-  await waitForWorkerControl(page);
-  await own.stop();
+  const { server: own, context, page } = await offlineAfterVisit(browser, 'lens-check');
   await page.goto(own.url(link({ r: '-8.00 -0.25 x45', rm: '-8.20 -0.25 x60' })));
   await waitForApp(page);
   assert.equal(await overall(page, 'Right'), 'outside tolerance');

@@ -13,7 +13,7 @@
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { createRequire } from 'node:module';
-import { startServer, launch, waitForApp, watchErrors, waitForWorkerControl } from './harness.js';
+import { startServer, launch, waitForApp, watchErrors, offlineAfterVisit } from './harness.js';
 
 const require = createRequire(import.meta.url);
 const AXE = require.resolve('axe-core/axe.min.js');
@@ -289,13 +289,7 @@ test('save to history and reopen from it restores the panel', async () => {
 });
 
 test('offline: after one visit the panel opens from a link and computes with the server stopped', async () => {
-  const own = await startServer();
-  const context = await browser.newContext();
-  const page = await context.newPage();
-  await page.goto(own.url('over-refraction'));
-  await waitForApp(page);
-  await waitForWorkerControl(page);
-  await own.stop();
+  const { server: own, context, page } = await offlineAfterVisit(browser, 'over-refraction');
   await page.goto(own.url(O4));
   await waitForApp(page);
   await expectText(region(page, 'Right'), '-7.09 -1.03 ×170', '-7.00 -1.25 ×170');

@@ -25,9 +25,10 @@ pub fn effective_power(power: f64, shift_m: f64) -> Result<f64, Error> {
     if shift_m == 0.0 {
         return Ok(power);
     }
-    let denominator = 1.0 - shift_m * power;
-    let result = power / denominator;
-    if denominator.abs() < 1e-12 || !result.is_finite() || result.abs() > RESULT_LIMIT {
+    let result = power / (1.0 - shift_m * power);
+    // A far point at the new plane divides by zero (an infinite result);
+    // near it the result passes the limit.
+    if !result.is_finite() || result.abs() > RESULT_LIMIT {
         return Err(Error::new(ErrorKind::Singular { power }, Field::Result, None));
     }
     Ok(result + 0.0)
@@ -73,4 +74,28 @@ pub fn compensate(rx: &Rx, from: VertexDistance, to: VertexDistance) -> Result<R
         return Ok(*rx);
     }
     Ok(compensate_meridians(&rx.meridians(), from, to)?.to_rx())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::effective_power;
+
+    #[test]
+    fn the_result_limit_holds_exactly_at_its_edge() {
+        // 50 D moved 10 mm toward the eye: 50 / (1 − 0.5) = 100 D exactly (F / (1 − dF), as in
+        // shared/optics-notes.md §1), the largest result given; a hair more is refused.
+        assert_eq!(effective_power(50.0, 0.01).unwrap(), 100.0);
+        assert!(effective_power(50.0001, 0.01).is_err());
+        // Far from singular (1 − dF = 0.1) yet past the limit: 30 D moved 30 mm gives 300 D.
+        assert!(effective_power(30.0, 0.03).is_err());
+        // At the singular point itself.
+        assert!(effective_power(100.0, 0.01).is_err());
+    }
+
+    #[test]
+    fn plano_stays_plano_never_a_negative_zero() {
+        // A typed "-0" moved anywhere is plano; a negative zero would print with a minus sign
+        // wherever a caller formats the sign from the bits.
+        assert!(effective_power(-0.0, 0.012).unwrap().is_sign_positive());
+    }
 }

@@ -1,6 +1,7 @@
 // Shared helpers for the browser tests: a built folder, the app's own server
 // on a free loopback port, and Debian's Chromium driven by playwright-core.
 import { chromium } from 'playwright-core';
+import { after } from 'node:test';
 import { spawn, execFileSync } from 'node:child_process';
 import { mkdtempSync, existsSync, mkdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -36,6 +37,13 @@ export function buildInto(out, buildId) {
   execFileSync(TOOL, ['build', '--out', out, '--build-id', buildId], { cwd: ROOT, stdio: 'inherit' });
 }
 
+// Every server this file started: a test that fails midway leaves its own
+// server running, and a running child would keep the test file's process
+// (and so the whole suite) waiting forever after its last test.
+const servers = new Set();
+// (Only under the test runner: the benchmarks import this file too.)
+if (process.env.NODE_TEST_CONTEXT) after(() => Promise.all([...servers].map((s) => s.stop())));
+
 /** Starts `lensplane serve --no-build` on a free port; resolves once it answers. */
 export async function startServer({ dir = DIST, port, prefix = '/' } = {}) {
   if (!existsSync(path.join(dir, 'index.html'))) throw new Error(`no build at ${dir}: run tests/run-all.sh`);
@@ -49,14 +57,17 @@ export async function startServer({ dir = DIST, port, prefix = '/' } = {}) {
     child.on('exit', (code) => reject(new Error(`server exited early (${code})`)));
   });
   const origin = `http://127.0.0.1:${port}`;
-  return {
+  const server = {
     port, origin, url: (p = '') => origin + prefix + p.replace(/^\//, ''),
     stop: () => new Promise((resolve) => {
-      if (child.exitCode !== null) return resolve();
+      servers.delete(server);
+      if (child.exitCode !== null || child.signalCode !== null) return resolve();
       child.once('exit', () => resolve());
       child.kill('SIGTERM');
     }),
   };
+  servers.add(server);
+  return server;
 }
 
 export async function launch(options = {}) {

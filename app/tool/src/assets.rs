@@ -225,10 +225,11 @@ pub fn assemble(root: &Path, bindgen: &Path, parts: &Split, out: &Path, build_id
         part: Part::Chunk,
     });
     collect_dir(&public.join("icons"), "icons/", Part::Rest, &mut files)?;
-    // The masthead shows the SVG icon on every page.
-    for f in files.iter_mut().filter(|f| f.url == "icons/icon.svg") {
-        f.part = Part::Landing;
-    }
+    // No icon is part of the landing load: the masthead's mark is drawn by
+    // the page, and the tab icon is the browser's own, fetched at idle
+    // priority with nothing on the page waiting for it. It is a PNG:
+    // Chromium fetches and decodes the tab icon again after every address
+    // change (every keystroke), and the SVG took three times as long.
     files.push(Shipped {
         url: "manifest.json".into(),
         bytes: read(&root.join("manifest.json"))?,

@@ -142,8 +142,35 @@ pub fn meridian_size(
         shape_factor: sf,
         spectacle_magnification: spectacle,
         contact_lens_magnification: cl,
-        spectacles: spectacle - 1.0 + 0.0,
-        contact_lens: cl - 1.0 + 0.0,
-        change: cl / spectacle - 1.0 + 0.0,
+        spectacles: spectacle - 1.0,
+        contact_lens: cl - 1.0,
+        change: cl / spectacle - 1.0,
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::{power_factor, shape_factor};
+
+    #[test]
+    fn a_power_factor_past_infinity_is_an_error_not_a_negative_size() {
+        // 1 − hF below zero: +70.00 at h = 15 mm gives 1 − 1.05 = −0.05 [derived from the
+        // power factor 1 / (1 − hF), shared/optics-notes.md §13].
+        assert!(power_factor(70.0, 0.015).is_err());
+        // At the singular point, and just inside it (a large but finite factor).
+        assert!(power_factor(1.0 / 0.015, 0.015).is_err());
+        assert!(power_factor(66.0, 0.015).unwrap() > 1.0);
+        assert!(power_factor(f64::NAN, 0.015).is_err());
+    }
+
+    #[test]
+    fn a_shape_factor_needs_a_positive_denominator_and_index() {
+        // 1 − (t/n)F1 below zero: +100.00 front, 20 mm, n = 1.5 gives 1 − 1.333 < 0 [derived from
+        // the shape factor 1 / (1 − (t/n)F1), shared/optics-notes.md §13].
+        assert!(shape_factor(100.0, 0.02, 1.5).is_err());
+        // A negative index would give a positive denominator (1 + 0.008) and a factor below 1.
+        assert!(shape_factor(6.0, 0.002, -1.5).is_err());
+        assert!(shape_factor(6.0, 0.002, 0.0).is_err());
+        assert!((shape_factor(6.0, 0.002, 1.5).unwrap() - 1.0 / 0.992).abs() < 1e-12);
+    }
 }

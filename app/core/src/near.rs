@@ -157,7 +157,7 @@ pub fn near_figures(power: f64, add: f64, g: &NearGeometry, rounded_add: Option<
         accommodation_spectacles_with_add: k - le_add,
         accommodation_target: k - target_plain,
         relief_at_eye: le_add - le_plain,
-        add_at_target: add2 + 0.0,
+        add_at_target: add2,
         near_power_at_target: p2,
         accommodation_target_with_rounded_add: k - target_rounded,
     })

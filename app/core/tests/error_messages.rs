@@ -301,6 +301,25 @@ fn settings_errors() {
         err(bad.validate()).to_string(),
         "setting: toric cylinders must be negative, down to -10.00 D"
     );
+    // Each wrong toric cylinder on its own (common practice, no source: stock torics are minus
+    // cylinders); the deepest allowed is the cylinder input limit, −10.00 D.
+    let toric = |cylinders: Vec<f64>, axis_step: u16| ToricSettings { cylinders, axis_step };
+    for c in [0.0, 0.75, f64::NAN, -10.25] {
+        assert_eq!(
+            err(toric(vec![-0.75, c], 10).validate()).to_string(),
+            "setting: toric cylinders must be negative, down to -10.00 D",
+            "{c}"
+        );
+    }
+    assert!(toric(vec![-0.75, -10.0], 10).validate().is_ok());
+    for step in [0, 7, 180] {
+        assert_eq!(
+            err(toric(vec![-0.75], step).validate()).to_string(),
+            "setting: the toric axis step must divide 180",
+            "{step}"
+        );
+    }
+    assert!(toric(vec![-0.75], 90).validate().is_ok());
     let bad = Ladder {
         fine_limit: 6.1,
         ..Ladder::CONTACT_LENS

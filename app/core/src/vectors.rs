@@ -101,3 +101,17 @@ pub(crate) fn sin_cos_degrees(deg: f64) -> (f64, f64) {
         d.to_radians().sin_cos()
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::PowerVector;
+    use crate::Rx;
+
+    #[test]
+    fn a_sphere_has_no_negative_zero_in_its_vector() {
+        // J0 = −C/2·cos 2θ and J45 = −C/2·sin 2θ are exactly zero for a sphere; kept as +0 so
+        // an angle taken from them (atan2 tells −0 from +0) never flips.
+        let v = PowerVector::from_rx(&Rx::sphere_only(-3.0).unwrap());
+        assert!(v.j0.is_sign_positive() && v.j45.is_sign_positive(), "{v:?}");
+    }
+}

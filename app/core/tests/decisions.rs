@@ -118,6 +118,29 @@ fn d5_toric_offer_threshold_and_axis_ties() {
     assert_eq!(t.ordered.cylinder(), -0.75);
     // Sphere keeps the SE: −2.50 − (−0.75/2) = −2.125 → tie toward plus → −2.00.
     assert_eq!(t.ordered.sphere(), -2.0);
+    // The same choices whatever order the stock list is in.
+    let reversed = ToricSettings {
+        cylinders: vec![-2.25, -1.75, -1.25, -0.75],
+        ..ToricSettings::default()
+    };
+    let cyl = |c: f64, settings: &ToricSettings| {
+        choose_toric(
+            &Rx::new(-2.0, c, 90).unwrap(),
+            settings,
+            &Ladder::CONTACT_LENS,
+            TieRule::TowardPlus,
+        )
+        .unwrap()
+        .unwrap()
+    };
+    for settings in [&ToricSettings::default(), &reversed] {
+        assert_eq!(cyl(-1.0, settings).ordered.cylinder(), -0.75, "tie");
+        assert_eq!(cyl(-1.1, settings).ordered.cylinder(), -1.25, "nearest");
+        assert_eq!(cyl(-1.5, settings).ordered.cylinder(), -1.25, "tie");
+    }
+    // In the stock range up to a quarter dioptre past the largest stock cylinder (−2.25).
+    assert!(cyl(-2.5, &ToricSettings::default()).within_range);
+    assert!(!cyl(-2.75, &ToricSettings::default()).within_range);
 }
 
 #[test]

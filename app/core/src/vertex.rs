@@ -83,7 +83,7 @@ mod tests {
     #[test]
     fn the_result_limit_holds_exactly_at_its_edge() {
         // 50 D moved 10 mm toward the eye: 50 / (1 − 0.5) = 100 D exactly (F / (1 − dF), as in
-        // shared/optics-notes.md §1), the largest result given; a hair more is refused.
+        // shared/optics-notes.md §2), the largest result given; a hair more is refused.
         assert_eq!(effective_power(50.0, 0.01).unwrap(), 100.0);
         assert!(effective_power(50.0001, 0.01).is_err());
         // Far from singular (1 − dF = 0.1) yet past the limit: 30 D moved 30 mm gives 300 D.

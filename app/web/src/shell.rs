@@ -214,25 +214,13 @@ fn Destinations(base: String, carry: Carry) -> impl IntoView {
     }
 }
 
-/// The app's mark, drawn in the page (the picture of public/icons/icon.svg):
-/// no request at start-up, and no separate SVG document to parse, which an
-/// `<img>` of the file needs.
+/// The app's mark, drawn in the page from the icon file itself (sized by
+/// the stylesheet): no request at start-up, and no separate SVG document to
+/// parse, which an `<img>` of the file needs.
 #[component]
 fn BrandMark() -> impl IntoView {
-    view! { <span class="brand-mark" aria-hidden="true" inner_html=BRAND_MARK></span> }
+    view! { <span class="brand-mark" aria-hidden="true" inner_html=include_str!("../../../public/icons/icon.svg")></span> }
 }
-
-/// public/icons/icon.svg at the masthead's size.
-const BRAND_MARK: &str = concat!(
-    r##"<svg viewBox="0 0 512 512" width="28" height="28" focusable="false">"##,
-    r##"<rect x="16" y="16" width="480" height="480" rx="112" fill="#12484c"/>"##,
-    r##"<g transform="translate(256 256) scale(0.86) translate(-256 -256)">"##,
-    r##"<path d="M196 96 Q268 256 196 416 Q124 256 196 96 Z" fill="#bfe3df" stroke="#e8f4f2" stroke-width="10" stroke-linejoin="round"/>"##,
-    r##"<rect x="318" y="112" width="22" height="288" rx="11" fill="#f0b43c"/>"##,
-    r##"<path d="M64 256 H196 L329 196 H448" fill="none" stroke="#e8f4f2" stroke-width="18" stroke-linecap="round" stroke-linejoin="round"/>"##,
-    r##"<path d="M64 256 H196 L329 316 H448" fill="none" stroke="#e8f4f2" stroke-width="18" stroke-linecap="round" stroke-linejoin="round" opacity="0.55"/>"##,
-    "</g></svg>"
-);
 
 #[component]
 pub fn App() -> impl IntoView {
